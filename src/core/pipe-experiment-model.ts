@@ -1,0 +1,47 @@
+/**
+ * The bare pipe experiment (teaching and verification): a straight pipe with
+ * chosen end types and a two-state initial split, advanced in time and
+ * sampled at chosen instants. SI units.
+ */
+import type { SchemeName } from './model.js';
+
+export interface PipeSideState {
+  pressure: number;
+  temperature: number;
+  velocity: number;
+}
+
+export interface PipeExperimentModel {
+  name: string;
+  pipe: {
+    length: number;
+    diameter: number;
+    meshSize: number;
+    /** Fanning friction factor; 0 or wallFriction false switches it off */
+    wallFriction: boolean;
+    friction: number;
+    wallHeatTransfer: boolean;
+    wallTemperature: number;
+  };
+  /** 'open' opens that end to a reservoir at the initial state of that side */
+  ends: { left: 'closed' | 'open'; right: 'closed' | 'open' };
+  initial: { split: number; left: PipeSideState; right: PipeSideState };
+  /** sample times [s], increasing */
+  times: number[];
+  numerics: { courant: number; scheme: SchemeName };
+}
+
+export interface PipeSnapshot {
+  time: number;
+  pressure: number[];
+  velocity: number[];
+  temperature: number[];
+}
+
+export interface PipeExperimentResult {
+  x: number[];
+  snapshots: PipeSnapshot[];
+  /** total gas mass at each snapshot [kg] */
+  mass: number[];
+  stats: { nodes: number; steps: number; scheme: SchemeName };
+}
