@@ -3,6 +3,7 @@ export * from './model.js';
 export * from './pipe-experiment-model.js';
 export * from './gas.js';
 export { simulatePoint, type SimulateOptions, type WarmStart, SimulationError } from './engine.js';
+export { DEFAULT_SCHEME } from './pipe/factory.js';
 export { runPipeExperiment } from './pipe-experiment.js';
 export { cylinderVolume, sweptVolume, clearanceVolume } from './kinematics.js';
 export { valveLift, curtainArea, effectiveArea, dischargeCoefficient, DEFAULT_CD_TABLE } from './valve.js';
