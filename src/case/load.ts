@@ -1,0 +1,198 @@
+/**
+ * Reading case files: YAML (so JSON also loads) parsed as plain data, then
+ * `--set path=value` overrides, then schema validation, then the core model.
+ *
+ * Plain data: only the YAML core schema; unresolved or custom tags, duplicate
+ * keys and syntax errors are rejected with their line; aliases are limited;
+ * files above MAX_CASE_BYTES are refused. Every failure is a CaseError.
+ */
+import { readFile, stat } from 'node:fs/promises';
+import YAML from 'yaml';
+import type { EngineModel } from '../core/model.js';
+import type { PipeExperimentModel } from '../core/pipe-experiment-model.js';
+import { CaseError } from './errors.js';
+import {
+  caseSchema,
+  pipeCaseSchema,
+  resolvePath,
+  validateCase,
+  validatePipeCase,
+  type Case,
+  type CaseIssue,
+  type PipeCase,
+} from './schema.js';
+import { closest } from './suggest.js';
+import { toEngineModel, toPipeModel } from './to-model.js';
+
+export const MAX_CASE_BYTES = 1024 * 1024;
+
+const YAML_OPTIONS: YAML.ParseOptions & YAML.DocumentOptions & YAML.SchemaOptions = {
+  prettyErrors: false,
+  uniqueKeys: true,
+  schema: 'core',
+  customTags: [],
+};
+const MAX_ALIASES = 100;
+
+export interface LoadOptions {
+  /** overrides "path=value", applied in order */
+  set?: readonly string[];
+  /** speed override [rpm], applied after `set` */
+  rpm?: number;
+}
+
+export interface LoadedCase {
+  /** the file it came from ("" when parsed from text) */
+  file: string;
+  /** the raw data after overrides (plain JSON) */
+  data: Record<string, unknown>;
+  case: Case;
+  model: EngineModel;
+}
+
+export interface LoadedPipeCase {
+  file: string;
+  data: Record<string, unknown>;
+  case: PipeCase;
+  model: PipeExperimentModel;
+}
+
+/** Read a file as text, with the size limit and a clear message naming the file. */
+export async function readCaseText(file: string): Promise<string> {
+  let size: number;
+  try {
+    const s = await stat(file);
+    if (!s.isFile()) throw new CaseError(file, 'not a file', 'file');
+    size = s.size;
+  } catch (e) {
+    if (e instanceof CaseError) throw e;
+    const code = (e as NodeJS.ErrnoException).code;
+    if (code === 'ENOENT') throw new CaseError(file, 'file not found', 'file');
+    throw new CaseError(file, `cannot read the file (${code ?? String(e)})`, 'file');
+  }
+  if (size > MAX_CASE_BYTES) throw new CaseError(file, `file is ${size} bytes; case files are limited to ${MAX_CASE_BYTES} bytes (1 MB)`, 'file');
+  try {
+    return await readFile(file, 'utf8');
+  } catch (e) {
+    throw new CaseError(file, `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})`, 'file');
+  }
+}
+
+function where(file: string, linePos: readonly { line: number; col: number }[] | undefined): string {
+  const p = linePos?.[0];
+  const name = file || 'case';
+  return p ? `${name}:${p.line}:${p.col}` : name;
+}
+
+/** Parse YAML text as plain data (a mapping at the top). */
+export function parseYamlText(text: string, file = ''): Record<string, unknown> {
+  if (text.length > MAX_CASE_BYTES) throw new CaseError(file || 'case', `text is larger than ${MAX_CASE_BYTES} bytes (1 MB)`, 'file');
+  const doc = YAML.parseDocument(text, YAML_OPTIONS);
+  const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
+  if (problem) {
+    const first = problem.message.split('\n')[0]!.replace(/ at line \d+, column \d+:?$/, '');
+    const msg = problem.code === 'TAG_RESOLVE_FAILED' ? `${first} (case files are plain data: no custom tags)` : first;
+    throw new CaseError(where(file, problem.linePos), `malformed YAML: ${msg}`, 'yaml');
+  }
+  let data: unknown;
+  try {
+    data = doc.toJS({ maxAliasCount: MAX_ALIASES });
+  } catch (e) {
+    throw new CaseError(file || 'case', `malformed YAML: ${(e as Error).message}`, 'yaml');
+  }
+  if (data === null || data === undefined) throw new CaseError(file || 'case', 'the file is empty', 'yaml');
+  if (typeof data !== 'object' || Array.isArray(data))
+    throw new CaseError(file || 'case', `the file must be a mapping of keys (name, engine, ...), got ${Array.isArray(data) ? 'a list' : typeof data}`, 'yaml');
+  return data as Record<string, unknown>;
+}
+
+/** Parse one "--set" value as a YAML scalar (or flow value): "320mm", "0.32", "plenum", "true". */
+export function parseSetValue(text: string, path: string): unknown {
+  const doc = YAML.parseDocument(text, YAML_OPTIONS);
+  const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
+  if (problem) throw new CaseError(path, `--set value '${text}' is not a valid YAML value`, 'option');
+  const v: unknown = doc.toJS({ maxAliasCount: MAX_ALIASES });
+  return v === null ? undefined : v;
+}
+
+type Schema = typeof caseSchema | typeof pipeCaseSchema;
+
+/** Apply "path=value" overrides to raw data (in place), checking each path against the schema. */
+export function applySets(data: Record<string, unknown>, sets: readonly string[], schema: Schema = caseSchema): void {
+  for (const s of sets) {
+    const eq = s.indexOf('=');
+    if (eq <= 0) throw new CaseError('--set', `expected path=value (e.g. runner.length=320mm), got '${s}'`, 'option');
+    const path = s.slice(0, eq).trim();
+    const segs = path.split('.');
+    if (segs.some((x) => x === '')) throw new CaseError('--set', `bad path '${path}'`, 'option');
+    const r = resolvePath(schema, segs, data);
+    if (!r.ok) {
+      const prefix = segs.slice(0, r.at).join('.');
+      const guess = closest(segs[r.at]!, r.known);
+      const full = guess === undefined ? '' : ` (did you mean '${prefix ? `${prefix}.` : ''}${guess}'?)`;
+      throw new CaseError(path, `unknown key in --set${full}`, 'unknown-key');
+    }
+    const value = parseSetValue(s.slice(eq + 1).trim(), path);
+    if (r.node.kind === 'object' && (value === null || typeof value !== 'object'))
+      throw new CaseError(path, `is a group of keys (${r.node.keys.join(', ')}); set one of them, e.g. ${path}.${r.node.keys[0] ?? 'x'}=...`, 'option');
+    let cur: Record<string, unknown> = data;
+    for (let i = 0; i < segs.length - 1; i++) {
+      const k = segs[i]!;
+      let next = cur[k];
+      if (next === undefined || next === null) {
+        next = /^\d+$/.test(segs[i + 1]!) ? [] : {};
+        cur[k] = next;
+      }
+      if (typeof next !== 'object') throw new CaseError(segs.slice(0, i + 1).join('.'), `is a single value in the case, cannot set ${path}`, 'option');
+      cur = next as Record<string, unknown>;
+    }
+    const last = segs[segs.length - 1]!;
+    if (value === undefined) delete cur[last];
+    else cur[last] = value;
+  }
+}
+
+function firstIssue(issues: readonly CaseIssue[]): CaseError {
+  const i = issues[0];
+  if (!i) return new CaseError('', 'invalid case');
+  return new CaseError(i.path, i.message, i.message.startsWith('unknown key') ? 'unknown-key' : 'invalid');
+}
+
+function fileStem(file: string): string {
+  const base = file.split(/[\\/]/).pop() ?? file;
+  return base.replace(/\.(ya?ml|json)$/i, '') || 'case';
+}
+
+/** Validate raw case data (after YAML), apply overrides, build the model. */
+export function buildCase(raw: Record<string, unknown>, file = '', opts: LoadOptions = {}): LoadedCase {
+  if ('pipe' in raw && !('engine' in raw))
+    throw new CaseError(file || 'case', "this is a pipe experiment (it has a 'pipe' key): run it with `tractwave pipe FILE`");
+  const data = structuredClone(raw);
+  applySets(data, opts.set ?? [], caseSchema);
+  if (opts.rpm !== undefined) data.rpm = opts.rpm;
+  const v = validateCase(data);
+  if (!v.ok) throw firstIssue(v.issues);
+  return { file, data, case: v.value, model: toEngineModel(v.value, fileStem(file)) };
+}
+
+export function buildPipeCase(raw: Record<string, unknown>, file = '', opts: Pick<LoadOptions, 'set'> = {}): LoadedPipeCase {
+  if ('engine' in raw && !('pipe' in raw))
+    throw new CaseError(file || 'case', 'this is an engine case, not a pipe experiment: run it with `tractwave run FILE`');
+  const data = structuredClone(raw);
+  applySets(data, opts.set ?? [], pipeCaseSchema);
+  const v = validatePipeCase(data);
+  if (!v.ok) throw firstIssue(v.issues);
+  return { file, data, case: v.value, model: toPipeModel(v.value, fileStem(file)) };
+}
+
+export function parseCase(text: string, file = '', opts: LoadOptions = {}): LoadedCase {
+  return buildCase(parseYamlText(text, file), file, opts);
+}
+
+export async function loadCase(file: string, opts: LoadOptions = {}): Promise<LoadedCase> {
+  return parseCase(await readCaseText(file), file, opts);
+}
+
+export async function loadPipeCase(file: string, opts: Pick<LoadOptions, 'set'> = {}): Promise<LoadedPipeCase> {
+  return buildPipeCase(parseYamlText(await readCaseText(file), file), file, opts);
+}

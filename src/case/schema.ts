@@ -1,0 +1,532 @@
+/**
+ * The case-file schemas (zod v4): the engine case and the bare-pipe case.
+ *
+ * These are the ONE definition of what a case file may contain. Every
+ * dimensional value goes through `parseQuantity` here, so the validated case
+ * (`Case`, `PipeCase`) is already in model units: SI, with crank angles in
+ * degrees and speeds in rpm. Unknown keys are errors (strict objects).
+ *
+ * `validateCase` / `validatePipeCase` never throw: they return the value or
+ * a list of issues, each with a dotted field path and a message.
+ */
+import { z } from 'zod';
+import type { SchemeName } from '../core/model.js';
+import { parseQuantity, MODEL_UNIT, type QuantityKind } from './units.js';
+import { didYouMean } from './suggest.js';
+
+/**
+ * Default runner scheme when the case does not choose one.
+ * TODO(lead): the core exports no default scheme yet; 'conservative' is the
+ * reference scheme per DESIGN §2. Switch to the core's constant if it adds one.
+ */
+export const DEFAULT_SCHEME: SchemeName = 'conservative';
+
+export const SCHEMES: readonly SchemeName[] = ['characteristics', 'conservative'];
+
+/** Named entry-loss coefficients accepted for runner.entryLoss. */
+export const ENTRY_LOSS: Readonly<Record<string, number>> = {
+  /** well-rounded bellmouth (common practice) */
+  bellmouth: 0.05,
+  /** plain sharp-edged pipe end (common practice) */
+  plain: 0.5,
+};
+
+// ---------------------------------------------------------------- building blocks
+
+interface QOpts {
+  /** > 0 */
+  positive?: boolean;
+  /** ≥ 0 */
+  nonNegative?: boolean;
+}
+
+function fmt(v: number, kind: QuantityKind): string {
+  const u = MODEL_UNIT[kind];
+  const s = Number.isInteger(v) ? String(v) : Number(v.toPrecision(6)).toString();
+  return u === '-' ? s : `${s} ${u}`;
+}
+
+/** A dimensional value of one kind, converted to the model unit. */
+function q(kind: QuantityKind, opts: QOpts = {}) {
+  return z.unknown().transform((v, ctx): number => {
+    if (v === undefined) {
+      ctx.addIssue({ code: 'custom', message: 'required' });
+      return z.NEVER;
+    }
+    const r = parseQuantity(v, kind);
+    if (!r.ok) {
+      ctx.addIssue({ code: 'custom', message: r.message });
+      return z.NEVER;
+    }
+    if (opts.positive && !(r.value > 0)) {
+      ctx.addIssue({ code: 'custom', message: `must be positive, got ${fmt(r.value, kind)}` });
+      return z.NEVER;
+    }
+    if (opts.nonNegative && !(r.value >= 0)) {
+      ctx.addIssue({ code: 'custom', message: `must not be negative, got ${fmt(r.value, kind)}` });
+      return z.NEVER;
+    }
+    return r.value;
+  });
+}
+
+const length = () => q('length', { positive: true });
+const temperature = () => q('temperature', { positive: true });
+const pressure = () => q('pressure', { positive: true });
+
+/** A whole number ≥ min. */
+function count(min: number) {
+  return z.unknown().transform((v, ctx): number => {
+    if (v === undefined) {
+      ctx.addIssue({ code: 'custom', message: 'required' });
+      return z.NEVER;
+    }
+    if (typeof v !== 'number' || !Number.isInteger(v) || v < min) {
+      ctx.addIssue({ code: 'custom', message: `expected a whole number ≥ ${min}, got ${JSON.stringify(v)}` });
+      return z.NEVER;
+    }
+    return v;
+  });
+}
+
+function bool() {
+  return z.unknown().transform((v, ctx): boolean => {
+    if (typeof v !== 'boolean') {
+      ctx.addIssue({ code: 'custom', message: `expected true or false, got ${JSON.stringify(v)}` });
+      return z.NEVER;
+    }
+    return v;
+  });
+}
+
+function oneOf<T extends string>(values: readonly T[]) {
+  return z.unknown().transform((v, ctx): T => {
+    if (typeof v !== 'string' || !values.includes(v as T)) {
+      const got = v === undefined ? 'nothing' : JSON.stringify(v);
+      const hint = typeof v === 'string' ? didYouMean(v, values) : '';
+      ctx.addIssue({ code: 'custom', message: `expected one of ${values.map((s) => `'${s}'`).join(', ')}, got ${got}${hint}` });
+      return z.NEVER;
+    }
+    return v as T;
+  });
+}
+
+/** A table of [x, y] pairs, x strictly increasing. */
+function table(xName: string, yName: string, yMax: number) {
+  return z.unknown().transform((v, ctx): { x: number; y: number }[] => {
+    const bad = (message: string, path: (string | number)[] = []) => {
+      ctx.addIssue({ code: 'custom', message, path });
+      return z.NEVER;
+    };
+    if (!Array.isArray(v) || v.length < 2) return bad(`expected a list of at least two [${xName}, ${yName}] pairs`);
+    const out: { x: number; y: number }[] = [];
+    for (let i = 0; i < v.length; i++) {
+      const p: unknown = v[i];
+      if (!Array.isArray(p) || p.length !== 2 || typeof p[0] !== 'number' || typeof p[1] !== 'number' || !Number.isFinite(p[0]) || !Number.isFinite(p[1]))
+        return bad(`expected a pair [${xName}, ${yName}] of numbers`, [i]);
+      const [x, y] = p as [number, number];
+      if (x < 0) return bad(`${xName} must not be negative, got ${x}`, [i]);
+      if (y < 0 || y > yMax) return bad(`${yName} must be between 0 and ${yMax}, got ${y}`, [i]);
+      const last = out[out.length - 1];
+      if (last && !(x > last.x)) return bad(`${xName} must increase down the table (${x} after ${last.x})`, [i]);
+      out.push({ x, y });
+    }
+    return out;
+  });
+}
+
+// ---------------------------------------------------------------- the engine case
+
+const valveKeys = {
+  /** number of valves of this kind */
+  valves: count(1),
+  /** head (seat) diameter */
+  diameter: length(),
+  maxLift: length(),
+  /** card events, degrees; meaning per side (see intake/exhaust) */
+  opens: q('angle'),
+  closes: q('angle'),
+  /** [fraction of open duration, fraction of max lift] pairs */
+  liftTable: table('duration fraction', 'lift fraction', 1).optional(),
+  /** [L/D, Cd] pairs */
+  cdTable: table('L/D', 'Cd', 1).optional(),
+  /** lift at which the card events were measured (information; see to-model.ts) */
+  checkingLift: q('length', { positive: true }).optional(),
+};
+
+const intakeSchema = z.strictObject(valveKeys);
+const exhaustSchema = z.strictObject({
+  ...valveKeys,
+  backPressure: pressure(),
+  gasTemperature: temperature(),
+});
+
+const sectionSchema = z.strictObject({
+  length: length(),
+  diameterStart: length(),
+  diameterEnd: length(),
+});
+
+const entryLoss = z.unknown().transform((v, ctx): number => {
+  if (typeof v === 'string' && v in ENTRY_LOSS) return ENTRY_LOSS[v]!;
+  if (typeof v === 'number' && Number.isFinite(v) && v >= 0) return v;
+  ctx.addIssue({
+    code: 'custom',
+    message: `expected a loss coefficient ≥ 0 or one of ${Object.keys(ENTRY_LOSS).map((s) => `'${s}'`).join(', ')}, got ${JSON.stringify(v)}`,
+  });
+  return z.NEVER;
+});
+
+const runnerSchema = z
+  .strictObject({
+    length: length().optional(),
+    diameter: length().optional(),
+    sections: z.array(sectionSchema).optional(),
+    wallTemperature: temperature().optional(),
+    /** Fanning friction factor */
+    friction: q('dimensionless', { nonNegative: true }).default(0.005),
+    heatTransfer: bool().default(true),
+    entryLoss: entryLoss.default(ENTRY_LOSS.bellmouth!),
+  })
+  .transform((r, ctx) => {
+    const plain = r.length !== undefined || r.diameter !== undefined;
+    if (r.sections !== undefined) {
+      if (plain) {
+        ctx.addIssue({ code: 'custom', message: 'give either length and diameter, or sections, not both', path: [r.length !== undefined ? 'length' : 'diameter'] });
+        return z.NEVER;
+      }
+      if (r.sections.length === 0) {
+        ctx.addIssue({ code: 'custom', message: 'needs at least one section', path: ['sections'] });
+        return z.NEVER;
+      }
+    } else {
+      if (r.length === undefined || r.diameter === undefined) {
+        ctx.addIssue({
+          code: 'custom',
+          message: 'required (a runner needs length and diameter, or a list of sections)',
+          path: [r.length === undefined ? 'length' : 'diameter'],
+        });
+        return z.NEVER;
+      }
+    }
+    const sections = r.sections ?? [{ length: r.length!, diameterStart: r.diameter!, diameterEnd: r.diameter! }];
+    return {
+      sections,
+      ...(r.wallTemperature !== undefined ? { wallTemperature: r.wallTemperature } : {}),
+      friction: r.friction,
+      heatTransfer: r.heatTransfer,
+      entryLoss: r.entryLoss,
+    };
+  });
+
+const inletSchema = z
+  .discriminatedUnion('kind', [
+    z.strictObject({ kind: z.literal('ambient') }),
+    z.strictObject({
+      kind: z.literal('plenum'),
+      volume: q('volume', { positive: true }),
+      feedDiameter: length(),
+      feedCd: q('dimensionless', { positive: true }).default(0.8),
+    }),
+  ])
+  .default({ kind: 'ambient' });
+
+const numericsSchema = z
+  .strictObject({
+    meshSize: length().default(0.01),
+    courant: q('dimensionless').default(0.9),
+    maxCycles: count(1).default(30),
+    tolerance: q('dimensionless', { positive: true }).default(1e-4),
+    scheme: oneOf(SCHEMES).default(DEFAULT_SCHEME),
+  })
+  .prefault({});
+
+const speedRange = z.strictObject({ from: q('speed', { positive: true }), to: q('speed', { positive: true }), step: q('speed', { positive: true }) });
+const speedBand = z.strictObject({ from: q('speed', { positive: true }), to: q('speed', { positive: true }) });
+
+export const caseSchema = z
+  .strictObject({
+    name: z.string().optional(),
+    engine: z.strictObject({
+      bore: length(),
+      stroke: length(),
+      /** connecting rod, centre to centre */
+      rod: length(),
+      compressionRatio: q('dimensionless'),
+      wallTemperature: temperature().optional(),
+    }),
+    ambient: z.strictObject({ pressure: pressure(), temperature: temperature() }),
+    /** opens ° BTDC, closes ° ABDC */
+    intake: intakeSchema,
+    /** opens ° BBDC, closes ° ATDC */
+    exhaust: exhaustSchema,
+    runner: runnerSchema,
+    inlet: inletSchema,
+    rpm: q('speed', { positive: true }),
+    numerics: numericsSchema,
+    // analysis keys (used by sweep / tune / estimates)
+    sweep: speedRange.optional(),
+    band: speedBand.optional(),
+    estimate: z
+      .strictObject({
+        airFuelRatio: q('dimensionless', { positive: true }).optional(),
+        /** lower heating value of the fuel [J/kg] */
+        fuelHeatingValue: q('specificEnergy', { positive: true }).optional(),
+        brakeEfficiency: q('dimensionless', { positive: true }).optional(),
+      })
+      .optional(),
+  })
+  .superRefine((c, ctx) => {
+    const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+    const mm = (v: number) => `${Number((v * 1000).toPrecision(6))} mm`;
+    const e = c.engine;
+    if (!(e.rod > e.stroke / 2)) issue(['engine', 'rod'], `must be longer than half the stroke (${mm(e.stroke / 2)}), got ${mm(e.rod)}`);
+    if (!(e.compressionRatio > 1)) issue(['engine', 'compressionRatio'], `must be greater than 1, got ${e.compressionRatio}`);
+    for (const side of ['intake', 'exhaust'] as const) {
+      const v = c[side];
+      if (!(v.diameter < e.bore)) issue([side, 'diameter'], `valve must be smaller than the bore (${mm(e.bore)}), got ${mm(v.diameter)}`);
+      const duration = v.opens + 180 + v.closes;
+      if (!(duration > 0 && duration < 720))
+        issue([side, 'closes'], `duration opens + 180 + closes = ${Number(duration.toPrecision(6))} deg must be between 0 and 720 deg (exclusive)`);
+      if (v.checkingLift !== undefined && !(v.checkingLift < v.maxLift))
+        issue([side, 'checkingLift'], `must be below maxLift (${mm(v.maxLift)}), got ${mm(v.checkingLift)}`);
+    }
+    const n = c.numerics;
+    if (!(n.courant > 0 && n.courant <= 1)) issue(['numerics', 'courant'], `must be in (0, 1], got ${n.courant}`);
+    const L = c.runner.sections.reduce((s, x) => s + x.length, 0);
+    if (n.meshSize > L / 2) issue(['numerics', 'meshSize'], `must be at most half the runner length (${mm(L / 2)}), got ${mm(n.meshSize)}`);
+    if (c.inlet.kind === 'plenum' && c.inlet.feedCd > 1) issue(['inlet', 'feedCd'], `must be at most 1, got ${c.inlet.feedCd}`);
+    if (c.sweep && !(c.sweep.to > c.sweep.from)) issue(['sweep', 'to'], `must be above sweep.from (${c.sweep.from} rpm), got ${c.sweep.to} rpm`);
+    if (c.band && !(c.band.to > c.band.from)) issue(['band', 'to'], `must be above band.from (${c.band.from} rpm), got ${c.band.to} rpm`);
+    const be = c.estimate?.brakeEfficiency;
+    if (be !== undefined && be > 1) issue(['estimate', 'brakeEfficiency'], `must be at most 1, got ${be}`);
+  });
+
+export type CaseInput = z.input<typeof caseSchema>;
+/** A validated engine case, in model units (SI, degrees, rpm). */
+export type Case = z.output<typeof caseSchema>;
+
+// ---------------------------------------------------------------- the pipe case
+
+const sideState = z.strictObject({
+  pressure: pressure(),
+  temperature: temperature(),
+  velocity: q('velocity').default(0),
+});
+
+export const pipeCaseSchema = z
+  .strictObject({
+    name: z.string().optional(),
+    pipe: z.strictObject({
+      length: length(),
+      diameter: length(),
+      meshSize: length().default(0.01),
+      wallFriction: bool().default(true),
+      wallHeatTransfer: bool().default(true),
+      /** Fanning friction factor used when wallFriction is on */
+      friction: q('dimensionless', { nonNegative: true }).default(0.005),
+      /** default: the left initial temperature */
+      wallTemperature: temperature().optional(),
+    }),
+    ends: z.strictObject({ left: oneOf(['closed', 'open'] as const), right: oneOf(['closed', 'open'] as const) }),
+    initial: z.strictObject({
+      split: q('dimensionless').default(0.5),
+      left: sideState,
+      right: sideState,
+    }),
+    times: z.array(q('time', { nonNegative: true })).min(1),
+    numerics: z
+      .strictObject({
+        courant: q('dimensionless').default(0.9),
+        scheme: oneOf(SCHEMES).default(DEFAULT_SCHEME),
+      })
+      .prefault({}),
+  })
+  .superRefine((c, ctx) => {
+    const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+    const s = c.initial.split;
+    if (!(s >= 0 && s <= 1)) issue(['initial', 'split'], `must be between 0 and 1 (fraction of the length from the left end), got ${s}`);
+    for (let i = 1; i < c.times.length; i++)
+      if (!(c.times[i]! > c.times[i - 1]!)) issue(['times', i], `times must increase (${c.times[i]} s after ${c.times[i - 1]} s)`);
+    const cn = c.numerics.courant;
+    if (!(cn > 0 && cn <= 1)) issue(['numerics', 'courant'], `must be in (0, 1], got ${cn}`);
+    if (c.pipe.meshSize > c.pipe.length / 2) issue(['pipe', 'meshSize'], `must be at most half the pipe length, got ${c.pipe.meshSize} m`);
+  });
+
+export type PipeCaseInput = z.input<typeof pipeCaseSchema>;
+export type PipeCase = z.output<typeof pipeCaseSchema>;
+
+// ---------------------------------------------------------------- issues
+
+export interface CaseIssue {
+  /** dotted field path, e.g. "runner.length" ("" for the whole file) */
+  path: string;
+  message: string;
+}
+
+export type Validation<T> = { ok: true; value: T } | { ok: false; issues: CaseIssue[] };
+
+export function formatPath(path: readonly PropertyKey[]): string {
+  return path.map((p) => String(p)).join('.');
+}
+
+function valueAt(data: unknown, path: readonly PropertyKey[]): unknown {
+  let cur: unknown = data;
+  for (const k of path) {
+    if (cur === null || typeof cur !== 'object') return undefined;
+    cur = (cur as Record<PropertyKey, unknown>)[k as string];
+  }
+  return cur;
+}
+
+function typeName(v: unknown): string {
+  if (v === undefined) return 'nothing';
+  if (v === null) return 'null';
+  if (Array.isArray(v)) return 'a list';
+  if (typeof v === 'object') return 'a mapping';
+  if (typeof v === 'string') return `'${v}'`;
+  return String(v);
+}
+
+/** Turn zod issues into our issues with plain messages. */
+function toIssues(schema: z.ZodType, data: unknown, zIssues: readonly z.core.$ZodIssue[]): CaseIssue[] {
+  const out: CaseIssue[] = [];
+  for (const iss of zIssues) {
+    const path = formatPath(iss.path);
+    switch (iss.code) {
+      case 'unrecognized_keys': {
+        const known = keysAt(schema, iss.path, data);
+        for (const k of iss.keys) out.push({ path: path ? `${path}.${k}` : k, message: `unknown key${didYouMean(k, known)}` });
+        break;
+      }
+      case 'invalid_type': {
+        const v = valueAt(data, iss.path);
+        const expected = iss.expected === 'object' ? 'a mapping of keys' : iss.expected === 'array' ? 'a list' : `a ${iss.expected}`;
+        out.push({ path, message: v === undefined ? `required (${expected})` : `expected ${expected}, got ${typeName(v)}` });
+        break;
+      }
+      case 'invalid_union': {
+        if (iss.discriminator !== undefined) {
+          const v = valueAt(data, iss.path);
+          const options = ((iss as { options?: unknown[] }).options ?? []).map(String);
+          const list = options.map((o) => `'${o}'`).join(', ');
+          const hint = typeof v === 'string' ? didYouMean(v, options) : '';
+          out.push({ path, message: v === undefined ? `required (one of ${list})` : `expected one of ${list}, got ${typeName(v)}${hint}` });
+        } else out.push({ path, message: iss.message });
+        break;
+      }
+      case 'too_small':
+        out.push({ path, message: iss.origin === 'array' ? `needs at least ${String(iss.minimum)} entr${iss.minimum === 1 ? 'y' : 'ies'}` : iss.message });
+        break;
+      default:
+        out.push({ path, message: iss.message });
+    }
+  }
+  return out;
+}
+
+function run<T>(schema: z.ZodType<T>, data: unknown): Validation<T> {
+  const r = schema.safeParse(data);
+  if (r.success) return { ok: true, value: r.data };
+  return { ok: false, issues: toIssues(schema, data, r.error.issues) };
+}
+
+export function validateCase(data: unknown): Validation<Case> {
+  return run(caseSchema, data);
+}
+
+export function validatePipeCase(data: unknown): Validation<PipeCase> {
+  return run(pipeCaseSchema, data);
+}
+
+// ---------------------------------------------------------------- walking the schema (keys, --set paths)
+
+type AnySchema = z.core.$ZodType;
+
+interface Def {
+  type: string;
+  innerType?: AnySchema;
+  in?: AnySchema;
+  shape?: Record<string, AnySchema>;
+  options?: AnySchema[];
+  element?: AnySchema;
+}
+
+function defOf(s: AnySchema): Def {
+  return s._zod.def as unknown as Def;
+}
+
+/** Strip optional/default/prefault/nullable and transforms (input side). */
+function unwrap(s: AnySchema): AnySchema {
+  for (;;) {
+    const d = defOf(s);
+    if ((d.type === 'optional' || d.type === 'default' || d.type === 'prefault' || d.type === 'nullable' || d.type === 'readonly') && d.innerType) s = d.innerType;
+    else if (d.type === 'pipe' && d.in) s = d.in;
+    else return s;
+  }
+}
+
+/** The object alternatives a schema stands for (one for an object, several for a union). */
+function objectOptions(s: AnySchema, data: unknown): Record<string, AnySchema>[] {
+  const u = unwrap(s);
+  const d = defOf(u);
+  if (d.type === 'object' && d.shape) return [d.shape];
+  if (d.type === 'union' && d.options) {
+    const all = d.options.flatMap((o) => objectOptions(o, undefined));
+    // a discriminated union: prefer the option matching the data's kind
+    const kind = data !== null && typeof data === 'object' ? (data as Record<string, unknown>).kind : undefined;
+    if (kind !== undefined) {
+      const match = all.filter((shape) => {
+        const k = shape.kind;
+        if (!k) return false;
+        const kd = defOf(unwrap(k)) as Def & { values?: unknown[] };
+        return kd.type === 'literal' && (kd.values ?? []).includes(kind);
+      });
+      if (match.length > 0) return match;
+    }
+    return all;
+  }
+  return [];
+}
+
+export type SchemaNode = { kind: 'object'; keys: string[] } | { kind: 'list' } | { kind: 'value' };
+
+/**
+ * Follow a path through a schema. Returns what is there, or the index of the
+ * first path segment that does not exist (with the keys that would).
+ */
+export function resolvePath(
+  schema: AnySchema,
+  path: readonly string[],
+  data: unknown,
+): { ok: true; node: SchemaNode } | { ok: false; at: number; known: string[] } {
+  let s: AnySchema = schema;
+  let d: unknown = data;
+  for (let i = 0; i < path.length; i++) {
+    const key = path[i]!;
+    const u = unwrap(s);
+    const ud = defOf(u);
+    if (ud.type === 'array' && ud.element) {
+      if (!/^\d+$/.test(key)) return { ok: false, at: i, known: [] };
+      s = ud.element;
+      d = Array.isArray(d) ? d[Number(key)] : undefined;
+      continue;
+    }
+    const options = objectOptions(s, d);
+    const next = options.map((o) => o[key]).find((x) => x !== undefined);
+    if (!next) return { ok: false, at: i, known: [...new Set(options.flatMap((o) => Object.keys(o)))] };
+    s = next;
+    d = d !== null && typeof d === 'object' ? (d as Record<string, unknown>)[key] : undefined;
+  }
+  const u = unwrap(s);
+  const t = defOf(u).type;
+  if (t === 'array') return { ok: true, node: { kind: 'list' } };
+  const opts = objectOptions(s, d);
+  if (opts.length > 0) return { ok: true, node: { kind: 'object', keys: [...new Set(opts.flatMap((o) => Object.keys(o)))] } };
+  return { ok: true, node: { kind: 'value' } };
+}
+
+function keysAt(schema: AnySchema, path: readonly PropertyKey[], data: unknown): string[] {
+  const r = resolvePath(schema, path.map(String), data);
+  return r.ok && r.node.kind === 'object' ? r.node.keys : [];
+}

@@ -1,0 +1,165 @@
+/**
+ * Validated case → core model.
+ *
+ * Cam card to absolute crank angle θ (0 = gas-exchange TDC, cycle 720°):
+ *   intake opens  X° BTDC → θ = 720 − X      (mod 720)
+ *   intake closes Y° ABDC → θ = 180 + Y      (mod 720)
+ *   exhaust opens X° BBDC → θ = 540 − X      (mod 720)
+ *   exhaust closes Y° ATDC → θ = Y           (mod 720)
+ *
+ * Card events are taken as the zero-lift ends of the lift curve, unless the
+ * valve gives `checkingLift` (the lift at which the card was measured, e.g.
+ * 1 mm). Then the events are widened with the core's lift profile: the card
+ * angles are where the curve passes the checking lift, and the zero-lift
+ * ends lie outside them (see `widenToZeroLift`).
+ */
+import type { EngineModel, TablePoint, ValveModel } from '../core/model.js';
+import type { PipeExperimentModel } from '../core/pipe-experiment-model.js';
+import { DEFAULT_CD_TABLE, valveLift } from '../core/valve.js';
+import { CaseError } from './errors.js';
+import type { Case, PipeCase } from './schema.js';
+
+export function wrap720(theta: number): number {
+  const t = theta % 720;
+  return t < 0 ? t + 720 : t;
+}
+
+export const cardToTheta = {
+  intakeOpens: (btdc: number) => wrap720(720 - btdc),
+  intakeCloses: (abdc: number) => wrap720(180 + abdc),
+  exhaustOpens: (bbdc: number) => wrap720(540 - bbdc),
+  exhaustCloses: (atdc: number) => wrap720(atdc),
+};
+
+/** Phases φ₁ < φ₂ (0..1 of the zero-lift duration) where the lift profile first and last reaches `fraction` of max lift. */
+export function profileCrossings(liftTable: TablePoint[] | undefined, fraction: number): { rise: number; fall: number } | undefined {
+  // a probe valve open over 0..360° with unit max lift: lift = profile(φ)
+  const probe: ValveModel = { count: 1, diameter: 1, maxLift: 1, openAngle: 0, closeAngle: 360, cdTable: [], ...(liftTable ? { liftTable } : {}) };
+  const f = (phi: number) => valveLift(probe, phi * 360) - fraction;
+  const N = 720;
+  let rise: number | undefined;
+  let fall: number | undefined;
+  const bisect = (a: number, b: number) => {
+    let fa = f(a);
+    for (let k = 0; k < 60; k++) {
+      const m = 0.5 * (a + b);
+      const fm = f(m);
+      if (fa < 0 === fm < 0) {
+        a = m;
+        fa = fm;
+      } else b = m;
+    }
+    return 0.5 * (a + b);
+  };
+  for (let i = 0; i < N; i++) {
+    const a = i / N;
+    const b = (i + 1) / N;
+    if (rise === undefined && f(a) < 0 && f(b) >= 0) rise = bisect(a, b);
+    if (f(a) >= 0 && f(b) < 0) fall = bisect(a, b);
+  }
+  if (rise === undefined || fall === undefined || !(fall > rise)) return undefined;
+  return { rise, fall };
+}
+
+/**
+ * Zero-lift open/close angles from card angles measured at a checking lift.
+ * With card duration Dc and crossings φ₁, φ₂: D = Dc/(φ₂ − φ₁),
+ * θo = θo,card − φ₁·D, θc = θo + D.
+ */
+export function widenToZeroLift(
+  openCard: number,
+  closeCard: number,
+  checkingLift: number,
+  maxLift: number,
+  liftTable: TablePoint[] | undefined,
+  path: string,
+): { open: number; close: number } {
+  const c = profileCrossings(liftTable, checkingLift / maxLift);
+  if (!c) throw new CaseError(path, 'the lift profile never reaches the checking lift');
+  const cardDuration = wrap720(closeCard - openCard);
+  const D = cardDuration / (c.fall - c.rise);
+  if (!(D < 720))
+    throw new CaseError(path, `widening the card events to zero lift gives a duration of ${D.toFixed(1)} deg, more than a whole cycle`);
+  const open = wrap720(openCard - c.rise * D);
+  return { open, close: wrap720(open + D) };
+}
+
+function valveModel(
+  v: Case['intake'],
+  openTheta: number,
+  closeTheta: number,
+  path: string,
+): ValveModel {
+  let open = openTheta;
+  let close = closeTheta;
+  if (v.checkingLift !== undefined) {
+    const w = widenToZeroLift(open, close, v.checkingLift, v.maxLift, v.liftTable, `${path}.checkingLift`);
+    open = w.open;
+    close = w.close;
+  }
+  return {
+    count: v.valves,
+    diameter: v.diameter,
+    maxLift: v.maxLift,
+    openAngle: open,
+    closeAngle: close,
+    ...(v.liftTable ? { liftTable: v.liftTable } : {}),
+    cdTable: v.cdTable ?? DEFAULT_CD_TABLE.map((p) => ({ ...p })),
+  };
+}
+
+/** Build the core's engine model from a validated case. Throws CaseError for inconsistent events. */
+export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
+  const intake = valveModel(c.intake, cardToTheta.intakeOpens(c.intake.opens), cardToTheta.intakeCloses(c.intake.closes), 'intake');
+  const exhaustValve = valveModel(c.exhaust, cardToTheta.exhaustOpens(c.exhaust.opens), cardToTheta.exhaustCloses(c.exhaust.closes), 'exhaust');
+  return {
+    name: c.name ?? fallbackName,
+    engine: {
+      bore: c.engine.bore,
+      stroke: c.engine.stroke,
+      rod: c.engine.rod,
+      compressionRatio: c.engine.compressionRatio,
+      ...(c.engine.wallTemperature !== undefined ? { wallTemperature: c.engine.wallTemperature } : {}),
+    },
+    ambient: { pressure: c.ambient.pressure, temperature: c.ambient.temperature },
+    intake,
+    exhaust: { ...exhaustValve, backPressure: c.exhaust.backPressure, gasTemperature: c.exhaust.gasTemperature },
+    runner: {
+      sections: c.runner.sections.map((s) => ({ length: s.length, diameterStart: s.diameterStart, diameterEnd: s.diameterEnd })),
+      wallTemperature: c.runner.wallTemperature ?? c.ambient.temperature,
+      friction: c.runner.friction,
+      heatTransfer: c.runner.heatTransfer,
+      entryLoss: c.runner.entryLoss,
+    },
+    inlet:
+      c.inlet.kind === 'plenum'
+        ? { kind: 'plenum', volume: c.inlet.volume, feedDiameter: c.inlet.feedDiameter, feedCd: c.inlet.feedCd }
+        : { kind: 'ambient' },
+    rpm: c.rpm,
+    numerics: { ...c.numerics },
+  };
+}
+
+/** Build the core's pipe-experiment model from a validated pipe case. */
+export function toPipeModel(c: PipeCase, fallbackName = 'pipe'): PipeExperimentModel {
+  return {
+    name: c.name ?? fallbackName,
+    pipe: {
+      length: c.pipe.length,
+      diameter: c.pipe.diameter,
+      meshSize: c.pipe.meshSize,
+      wallFriction: c.pipe.wallFriction,
+      friction: c.pipe.wallFriction ? c.pipe.friction : 0,
+      wallHeatTransfer: c.pipe.wallHeatTransfer,
+      wallTemperature: c.pipe.wallTemperature ?? c.initial.left.temperature,
+    },
+    ends: { left: c.ends.left, right: c.ends.right },
+    initial: {
+      split: c.initial.split,
+      left: { ...c.initial.left },
+      right: { ...c.initial.right },
+    },
+    times: [...c.times],
+    numerics: { ...c.numerics },
+  };
+}
