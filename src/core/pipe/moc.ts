@@ -37,6 +37,11 @@ import type { PipeScheme, PipeWall, Side } from './scheme.js';
 const GM1 = GAMMA - 1;
 const GR = GAMMA * R_AIR;
 
+function minmod(a: number, b: number): number {
+  if (a * b <= 0) return 0;
+  return Math.abs(a) < Math.abs(b) ? a : b;
+}
+
 export class CharacteristicsScheme implements PipeScheme {
   readonly name = 'characteristics' as const;
   private lam: Float64Array;
@@ -48,12 +53,20 @@ export class CharacteristicsScheme implements PipeScheme {
   private readonly f: number;
   private readonly heat: boolean;
   private readonly tw: number;
+  /** conservative density per node [kg/m³] (mass correction) */
+  private rhoC: Float64Array;
+  /** node velocities at the old level [m/s] (mass correction) */
+  private fluxOld: Float64Array;
 
   constructor(
     readonly mesh: Mesh,
     wall: PipeWall,
+    /** apply the conservative mass correction after each step */
+    readonly massCorrection = true,
   ) {
     const n = mesh.n;
+    this.rhoC = new Float64Array(n);
+    this.fluxOld = new Float64Array(n);
     this.lam = new Float64Array(n);
     this.bet = new Float64Array(n);
     this.ent = new Float64Array(n);
@@ -71,6 +84,12 @@ export class CharacteristicsScheme implements PipeScheme {
     this.lam.fill(a + G1 * velocity);
     this.bet.fill(a - G1 * velocity);
     this.ent.fill(A);
+    this.syncDensity();
+  }
+
+  /** set the conservative densities from the present Riemann variables and entropy levels */
+  private syncDensity(): void {
+    for (let i = 0; i < this.mesh.n; i++) this.rhoC[i] = this.rho(i);
   }
 
   setState(p: ArrayLike<number>, u: ArrayLike<number>, T: ArrayLike<number>): void {
@@ -80,6 +99,7 @@ export class CharacteristicsScheme implements PipeScheme {
       this.bet[i] = a - G1 * u[i]!;
       this.ent[i] = a * Math.pow(P_REF / p[i]!, 1 / PEXP);
     }
+    this.syncDensity();
   }
 
   maxStableDt(courant: number): number {
@@ -157,6 +177,10 @@ export class CharacteristicsScheme implements PipeScheme {
     const sigma = dt / mesh.dx;
     const { lam, bet, ent, nl, nb, ne } = this;
     const fr = this.f > 0;
+    if (this.massCorrection) {
+      const fo = this.fluxOld;
+      for (let i = 0; i < n; i++) fo[i] = (lam[i]! - bet[i]!) / (2 * G1);
+    }
     for (let i = 1; i < n - 1; i++) {
       const li = lam[i]!;
       const bi = bet[i]!;
@@ -221,6 +245,68 @@ export class CharacteristicsScheme implements PipeScheme {
     this.nb = bet;
     this.ent = ne;
     this.ne = ent;
+    if (this.massCorrection) this.correctMass(dt, -left.massFlow, right.massFlow);
+  }
+
+  /**
+   * Conservative mass correction. Each node i is the centre of a control
+   * volume F_i·dx (half that at the ends). The mass flux through the face
+   * between nodes i and i+1 during the step is
+   *   Φ_{i+½} = ρ_f·u_f·F_f,
+   * u_f the face velocity averaged over the old level and the
+   * characteristics' new level, F_f the mean area, and ρ_f the upwind
+   * density with a minmod-limited slope and the usual (1 − |u_f|·dt/dx)
+   * factor (second order where smooth, monotone at fronts; stable since
+   * |u|·dt/dx < 1 under the CFL step). At the ends Φ is exactly the
+   * boundary flow. The node density is set to what those fluxes imply,
+   *   ρ_iⁿ⁺¹ = ρ_iⁿ − dt·(Φ_{i+½} − Φ_{i−½})/(F_i·dx),
+   * keeping the characteristics' pressure and velocity (so the wave timing
+   * is the characteristics'); only the entropy level (temperature) absorbs
+   * the correction: a = √(γ·p/ρ), A = a·(P_REF/p)^((γ−1)/(2γ)). Total mass
+   * changes by exactly the boundary flows (to round-off).
+   * @param inLeft mass flow into the pipe at x = 0 [kg/s]
+   * @param outRight mass flow out of the pipe at x = L [kg/s]
+   */
+  private correctMass(dt: number, inLeft: number, outRight: number): void {
+    const { n, dx, area } = this.mesh;
+    const { lam, bet, ent, rhoC, fluxOld } = this;
+    const uOld = fluxOld; // holds the old velocities (see step)
+    const sigma = dt / dx;
+    let prevFlux = inLeft;
+    const corrected = this.nl; // scratch
+    for (let i = 0; i < n; i++) {
+      let nextFlux: number;
+      if (i === n - 1) nextFlux = outRight;
+      else {
+        const uf = 0.25 * (uOld[i]! + uOld[i + 1]! + (lam[i]! - bet[i]!) / (2 * G1) + (lam[i + 1]! - bet[i + 1]!) / (2 * G1));
+        const ff = 0.5 * (area[i]! + area[i + 1]!);
+        let rf: number;
+        if (uf >= 0) {
+          const d1 = i > 0 ? rhoC[i]! - rhoC[i - 1]! : 0;
+          const d2 = rhoC[i + 1]! - rhoC[i]!;
+          rf = rhoC[i]! + 0.5 * minmod(d1, d2) * (1 - uf * sigma);
+        } else {
+          const d1 = rhoC[i + 1]! - rhoC[i]!;
+          const d2 = i + 2 < n ? rhoC[i + 2]! - rhoC[i + 1]! : 0;
+          rf = rhoC[i + 1]! - 0.5 * minmod(d1, d2) * (1 + uf * sigma);
+        }
+        nextFlux = rf * uf * ff;
+      }
+      const vol = (i === 0 || i === n - 1 ? 0.5 : 1) * area[i]! * dx;
+      corrected[i] = rhoC[i]! - (dt * (nextFlux - prevFlux)) / vol;
+      prevFlux = nextFlux;
+    }
+    for (let i = 0; i < n; i++) {
+      const rho = corrected[i]!;
+      const a0 = 0.5 * (lam[i]! + bet[i]!);
+      const u = (lam[i]! - bet[i]!) / (2 * G1);
+      const p = P_REF * Math.pow(a0 / ent[i]!, PEXP);
+      const a = Math.sqrt((GAMMA * p) / rho);
+      rhoC[i] = rho;
+      lam[i] = a + G1 * u;
+      bet[i] = a - G1 * u;
+      ent[i] = a * Math.pow(P_REF / p, 1 / PEXP);
+    }
   }
 
   private setEnd(i: number, p: number, u: number, A: number): void {
@@ -242,7 +328,7 @@ export class CharacteristicsScheme implements PipeScheme {
     let m = 0;
     for (let i = 0; i < n; i++) {
       const w = i === 0 || i === n - 1 ? 0.5 : 1;
-      m += w * this.rho(i) * area[i]!;
+      m += w * (this.massCorrection ? this.rhoC[i]! : this.rho(i)) * area[i]!;
     }
     return m * dx;
   }
@@ -268,6 +354,6 @@ export class CharacteristicsScheme implements PipeScheme {
   }
 }
 
-export function createCharacteristicsScheme(mesh: Mesh, wall: PipeWall): PipeScheme {
-  return new CharacteristicsScheme(mesh, wall);
+export function createCharacteristicsScheme(mesh: Mesh, wall: PipeWall, massCorrection = true): PipeScheme {
+  return new CharacteristicsScheme(mesh, wall, massCorrection);
 }
