@@ -32,7 +32,7 @@ import { buildMesh, totalLength } from './pipe/mesh.js';
 import { createPipeScheme } from './pipe/factory.js';
 import { effectiveArea, valveLift } from './valve.js';
 import { sweptVolume } from './kinematics.js';
-import type { EngineModel, PointResult, ValveEvents } from './model.js';
+import type { EngineModel, PointResult, RunnerSection, ValveEvents } from './model.js';
 
 /** State to start a point from, e.g. the converged state of a neighbouring speed. Plain data. */
 export interface WarmStart {
@@ -77,7 +77,8 @@ function atAngle(arr: Float64Array, theta: number): number {
 export function simulatePoint(model: EngineModel, options: SimulateOptions = {}): { result: PointResult; warmStart: WarmStart } {
   const { engine, ambient, intake, exhaust, runner, numerics, rpm } = model;
   if (!(rpm > 0)) throw new SimulationError('invalid', `rpm must be positive (got ${rpm})`);
-  const mesh = buildMesh(runner.sections, numerics.meshSize);
+  const delta = openEndCorrection(model);
+  const mesh = buildMesh(withEndCorrection(runner.sections, delta), numerics.meshSize);
   const scheme = createPipeScheme(numerics.scheme, mesh, {
     friction: runner.friction,
     heatTransfer: runner.heatTransfer,
@@ -103,10 +104,10 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
   const mapPoints = Math.max(2, Math.min(n, options.mapPoints ?? 40));
   const mapX = new Float64Array(mapPoints);
   const mapIdx = new Float64Array(mapPoints);
+  const physical = mesh.length - delta;
   for (let j = 0; j < mapPoints; j++) {
-    const pos = (j * (n - 1)) / (mapPoints - 1);
-    mapIdx[j] = pos;
-    mapX[j] = (pos / (n - 1)) * mesh.length;
+    mapX[j] = (j * physical) / (mapPoints - 1);
+    mapIdx[j] = Math.min(n - 1, (delta + mapX[j]!) / mesh.dx);
   }
 
   // per-degree traces, indexed by θ (0..719)
@@ -297,6 +298,20 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
     runnerMap: { x: mapX, pressure: mapP },
   };
   return { result, warmStart };
+}
+
+/** the open-end correction [m] the runner is extended by (RunnerModel.endCorrection) */
+export function openEndCorrection(model: EngineModel): number {
+  const first = model.runner.sections[0];
+  if (model.runner.endCorrection !== undefined) return Math.max(0, model.runner.endCorrection);
+  return first ? 0.6133 * (first.diameterStart / 2) : 0;
+}
+
+/** the runner's sections with a straight virtual extension of length δ at the upstream end */
+export function withEndCorrection(sections: readonly RunnerSection[], delta: number): RunnerSection[] {
+  const first = sections[0];
+  if (!first || !(delta > 0)) return [...sections];
+  return [{ length: delta, diameterStart: first.diameterStart, diameterEnd: first.diameterStart }, ...sections];
 }
 
 function diverged(model: EngineModel, cycle: number, phi: number, what: string): SimulationError {

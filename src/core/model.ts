@@ -82,6 +82,12 @@ export interface EngineModel {
     heatTransfer: boolean;
     /** entry loss coefficient K at the upstream end (0 bellmouth … 0.5 plain edge) */
     entryLoss: number;
+    /**
+     * acoustic end correction at the open upstream end [m]: the 1-D runner is
+     * extended by this length so its open end rings like a real one.
+     * Default 0.6133·r of the entry (unflanged pipe, Levine & Schwinger 1948).
+     */
+    endCorrection?: number;
   };
   inlet:
     | { kind: 'ambient' }
