@@ -7,6 +7,7 @@
  * files above MAX_CASE_BYTES are refused. Every failure is a CaseError.
  */
 import { readFile, stat } from 'node:fs/promises';
+import { resolve } from 'node:path';
 import YAML from 'yaml';
 import type { EngineModel } from '../core/model.js';
 import type { PipeExperimentModel } from '../core/pipe-experiment-model.js';
@@ -39,6 +40,8 @@ export interface LoadOptions {
   set?: readonly string[];
   /** speed override [rpm], applied after `set` */
   rpm?: number;
+  /** directory a relative file name is read from (messages keep the name as given) */
+  cwd?: string;
 }
 
 export interface LoadedCase {
@@ -58,10 +61,11 @@ export interface LoadedPipeCase {
 }
 
 /** Read a file as text, with the size limit and a clear message naming the file. */
-export async function readCaseText(file: string): Promise<string> {
+export async function readCaseText(file: string, cwd?: string): Promise<string> {
+  const full = cwd === undefined ? file : resolve(cwd, file);
   let size: number;
   try {
-    const s = await stat(file);
+    const s = await stat(full);
     if (!s.isFile()) throw new CaseError(file, 'not a file', 'file');
     size = s.size;
   } catch (e) {
@@ -72,7 +76,7 @@ export async function readCaseText(file: string): Promise<string> {
   }
   if (size > MAX_CASE_BYTES) throw new CaseError(file, `file is ${size} bytes; case files are limited to ${MAX_CASE_BYTES} bytes (1 MB)`, 'file');
   try {
-    return await readFile(file, 'utf8');
+    return await readFile(full, 'utf8');
   } catch (e) {
     throw new CaseError(file, `cannot read the file (${(e as NodeJS.ErrnoException).code ?? String(e)})`, 'file');
   }
@@ -190,9 +194,9 @@ export function parseCase(text: string, file = '', opts: LoadOptions = {}): Load
 }
 
 export async function loadCase(file: string, opts: LoadOptions = {}): Promise<LoadedCase> {
-  return parseCase(await readCaseText(file), file, opts);
+  return parseCase(await readCaseText(file, opts.cwd), file, opts);
 }
 
-export async function loadPipeCase(file: string, opts: Pick<LoadOptions, 'set'> = {}): Promise<LoadedPipeCase> {
-  return buildPipeCase(parseYamlText(await readCaseText(file), file), file, opts);
+export async function loadPipeCase(file: string, opts: Pick<LoadOptions, 'set' | 'cwd'> = {}): Promise<LoadedPipeCase> {
+  return buildPipeCase(parseYamlText(await readCaseText(file, opts.cwd), file), file, opts);
 }

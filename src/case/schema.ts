@@ -11,15 +11,12 @@
  */
 import { z } from 'zod';
 import type { SchemeName } from '../core/model.js';
+import { DEFAULT_SCHEME as CORE_DEFAULT_SCHEME } from '../core/index.js';
 import { parseQuantity, MODEL_UNIT, type QuantityKind } from './units.js';
 import { didYouMean } from './suggest.js';
 
-/**
- * Default runner scheme when the case does not choose one.
- * TODO(lead): the core exports no default scheme yet; 'conservative' is the
- * reference scheme per DESIGN §2. Switch to the core's constant if it adds one.
- */
-export const DEFAULT_SCHEME: SchemeName = 'conservative';
+/** Default runner scheme when the case does not choose one: the core's. */
+export const DEFAULT_SCHEME: SchemeName = CORE_DEFAULT_SCHEME;
 
 export const SCHEMES: readonly SchemeName[] = ['characteristics', 'conservative'];
 

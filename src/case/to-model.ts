@@ -31,6 +31,20 @@ export const cardToTheta = {
   exhaustCloses: (atdc: number) => wrap720(atdc),
 };
 
+/** fold an angle difference into (−360, 360] */
+function fold(d: number): number {
+  const w = wrap720(d);
+  return w > 360 ? w - 720 : w;
+}
+
+/** Absolute θ back to the card convention (negative = the other side of the dead centre). */
+export const thetaToCard = {
+  intakeOpens: (theta: number) => fold(720 - theta),
+  intakeCloses: (theta: number) => fold(theta - 180),
+  exhaustOpens: (theta: number) => fold(540 - theta),
+  exhaustCloses: (theta: number) => fold(theta),
+};
+
 /** Phases φ₁ < φ₂ (0..1 of the zero-lift duration) where the lift profile first and last reaches `fraction` of max lift. */
 export function profileCrossings(liftTable: TablePoint[] | undefined, fraction: number): { rise: number; fall: number } | undefined {
   // a probe valve open over 0..360° with unit max lift: lift = profile(φ)

@@ -1,0 +1,44 @@
+// Single-file ESM bundle of the command line: dist/tractwave.mjs.
+// Start-up matters over SSH: one file parses faster than hundreds of modules.
+// See STACK.md: platform node, format esm, NODE_ENV=production, a
+// createRequire banner (for CommonJS dependencies that call require), and
+// react-devtools-core (an optional Ink dependency) replaced by an empty stub.
+import { build } from 'esbuild';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+
+/** Empty modules for optional imports: react-devtools-core, and src/ui until it exists. */
+const stubs = {
+  name: 'tractwave-stubs',
+  setup(b) {
+    b.onResolve({ filter: /^react-devtools-core$/ }, () => ({ path: 'react-devtools-core', namespace: 'stub' }));
+    b.onResolve({ filter: /\/ui\/index\.js$/ }, (args) => {
+      const tsx = join(args.resolveDir, args.path.replace(/\.js$/, '.tsx'));
+      const ts = join(args.resolveDir, args.path.replace(/\.js$/, '.ts'));
+      if (existsSync(tsx) || existsSync(ts)) return undefined; // the terminal view exists: bundle it
+      return { path: 'ui-absent', namespace: 'stub' };
+    });
+    b.onLoad({ filter: /.*/, namespace: 'stub' }, (args) => ({
+      contents: args.path === 'react-devtools-core' ? 'export default { connectToDevTools() {} };' : 'export {};',
+      loader: 'js',
+    }));
+  },
+};
+
+await build({
+  entryPoints: [join(root, 'src/cli/main.ts')],
+  outfile: join(root, 'dist/tractwave.mjs'),
+  bundle: true,
+  platform: 'node',
+  format: 'esm',
+  target: 'node20',
+  define: { 'process.env.NODE_ENV': '"production"' },
+  banner: { js: "import { createRequire as __twCreateRequire } from 'node:module'; const require = __twCreateRequire(import.meta.url);" },
+  plugins: [stubs],
+  jsx: 'automatic',
+  legalComments: 'none',
+  logLevel: 'warning',
+});

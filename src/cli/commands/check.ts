@@ -1,0 +1,104 @@
+/** `tractwave check CASE`: validate, print derived geometry and hand estimates. */
+import { clearanceVolume, sweptVolume } from '../../core/kinematics.js';
+import { curtainArea } from '../../core/valve.js';
+import { sectionsVolume, totalLength } from '../../core/pipe/mesh.js';
+import { caseEstimates, END_CORRECTION } from '../../analysis/estimates.js';
+import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
+import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { card, cc, cm2, deg, fix, hz, mm, row, rpm } from '../format.js';
+import type { LoadedCase } from '../../case/load.js';
+import { wrap720 } from '../../case/to-model.js';
+import { eventLines } from '../run-output.js';
+
+const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION];
+
+export function checkReport(loaded: LoadedCase): string {
+  const m = loaded.model;
+  const c = loaded.case;
+  const vd = sweptVolume(m.engine);
+  const vc = clearanceVolume(m.engine);
+  const L = totalLength(m.runner.sections);
+  const vr = sectionsVolume(m.runner.sections);
+  const lo = c.sweep?.from ?? m.rpm / 2;
+  const hi = c.sweep?.to ?? m.rpm * 1.5;
+  const est = caseEstimates(m, lo, hi);
+  const a = est.soundSpeed;
+  let s = `${m.name}${loaded.file ? `  (${loaded.file})` : ''}: the case is valid\n\ngeometry\n`;
+  s += row('displacement', `${cc(vd)}  (bore ${mm(m.engine.bore)} x stroke ${mm(m.engine.stroke)})`);
+  s += row('clearance volume', `${cc(vc)}  (compression ratio ${fix(m.engine.compressionRatio, 2)})`);
+  s += row('rod / crank radius', fix(m.engine.rod / (m.engine.stroke / 2), 2));
+  for (const [label, v] of [['intake', m.intake], ['exhaust', m.exhaust]] as const) {
+    s += row(
+      `${label} curtain area`,
+      `${cm2(curtainArea(v, v.maxLift))} at ${mm(v.maxLift, 2)} lift  (${v.count} x π·D·L, L/D ${fix(v.maxLift / v.diameter, 3)})`,
+    );
+  }
+  const secs = m.runner.sections;
+  const shape =
+    secs.length === 1 && secs[0]!.diameterStart === secs[0]!.diameterEnd
+      ? `diameter ${mm(secs[0]!.diameterStart)}`
+      : `${secs.length} section${secs.length > 1 ? 's' : ''}, ${mm(secs[0]!.diameterStart, 0)} to ${mm(secs[secs.length - 1]!.diameterEnd, 0)} dia.`;
+  s += row('runner', `${mm(L)}, ${shape}`);
+  s += row('runner volume', `${cc(vr)}  (${fix(vr / vd, 2)} x displacement)`);
+  s += row('entry loss, friction', `K ${fix(m.runner.entryLoss, 2)}, Fanning f ${m.runner.friction}${m.runner.heatTransfer ? ', wall heat transfer on' : ''}`);
+  if (m.inlet.kind === 'plenum')
+    s += row('plenum', `${fix(m.inlet.volume * 1000, 2)} L (${fix(m.inlet.volume / vd, 1)} x displ.), feed ${mm(m.inlet.feedDiameter)}, Cd ${m.inlet.feedCd}`);
+  else s += row('inlet', 'open to the ambient air');
+
+  s += `\nhand estimates: rules of thumb, not the simulation (a = ${fix(a, 1)} m/s at ${fix(m.ambient.temperature - 273.15, 1)} °C)\n`;
+  s += row('quarter-wave frequency', `${hz(est.quarterWaveFrequency)} = a/(4(L+δ)), δ = ${END_CORRECTION.unflanged}·r = ${mm(est.endCorrection)}`);
+  s += row('wave order at case speed', `${fix((est.quarterWaveFrequency * 120) / m.rpm, 2)}  (f₁·120/N at ${rpm(m.rpm)})`);
+  s += row(
+    'tuned speeds 120·f₁/k',
+    est.tunedSpeeds.length > 0
+      ? `${est.tunedSpeeds.slice(0, 5).map((t) => `k=${t.order} ${fix(t.rpm, 0)}`).join(', ')} rpm`
+      : `no whole order k falls in ${fix(lo, 0)}–${fix(hi, 0)} rpm`,
+  );
+  s += row('Helmholtz (Engelman)', `${hz(est.helmholtz.frequency)}, peak near ${rpm(est.helmholtz.peakRpm)}`);
+  if (est.plenumFrequency !== null) s += row('plenum through its feed', hz(est.plenumFrequency));
+  s += row('wave round trip 12·N·L/a', `${deg((12 * m.rpm * L) / a, 1)} of crank at ${rpm(m.rpm)}  (2L/a = ${fix(((2 * L) / a) * 1000, 2)} ms)`);
+
+  s += '\nevents, card as given\n';
+  const note = (v: { checkingLift?: number | undefined }) => (v.checkingLift !== undefined ? ` at ${mm(v.checkingLift, 2)}` : ', zero lift');
+  s += row('intake', `opens ${card(c.intake.opens, 'BTDC', 'ATDC', 1)}, closes ${card(c.intake.closes, 'ABDC', 'BBDC', 1)}${note(c.intake)}`);
+  s += row('exhaust', `opens ${card(c.exhaust.opens, 'BBDC', 'ABDC', 1)}, closes ${card(c.exhaust.closes, 'ATDC', 'BTDC', 1)}${note(c.exhaust)}`);
+  const widened = c.intake.checkingLift !== undefined || c.exhaust.checkingLift !== undefined;
+  if (widened) s += '  (measured at a checking lift: widened below to the zero-lift ends)\n';
+  s += '\nevents as θ, 0 = TDC at the start of the intake stroke\n';
+  const ev = { ivo: m.intake.openAngle, ivc: m.intake.closeAngle, evo: m.exhaust.openAngle, evc: m.exhaust.closeAngle };
+  s += eventLines(ev);
+  const intakeDur = wrap720(ev.ivc - ev.ivo);
+  const exhaustDur = wrap720(ev.evc - ev.evo);
+  const ov = wrap720(ev.evc - ev.ivo);
+  const overlap = ov < intakeDur && ov < exhaustDur ? ov : 0;
+  s += row('durations', `intake ${deg(intakeDur, 1)}, exhaust ${deg(exhaustDur, 1)}, overlap ${deg(overlap, 1)}`);
+  return s;
+}
+
+export const checkCommand: Command = {
+  name: 'check',
+  summary: 'validate a case; print derived geometry and hand estimates',
+  help: `usage: tractwave check CASE [--set path=value ...] [--rpm N]
+
+Validates the case file and prints what follows from it: displacement,
+clearance volume, valve curtain areas at max lift, runner length and volume,
+the quarter-wave frequency with the open-end correction 0.6133·r (Levine &
+Schwinger), the wave order and tuned speeds, a Helmholtz estimate, the wave
+round trip 12·N·L/a in crank degrees at the case speed, and the valve events
+in card form and as crank angle θ. Nothing is simulated.
+
+options
+${optionHelp(OPTIONS)}
+`,
+  async run(argv, io) {
+    const args = parseArgs(argv, OPTIONS);
+    if (args.help) {
+      io.stdout.write(this.help);
+      return 0;
+    }
+    const [file] = expectPositionals(args, ['CASE'], 'check');
+    const loaded = await loadCaseFromArgs(file!, args, io);
+    io.stdout.write(checkReport(loaded));
+    return 0;
+  },
+};

@@ -1,0 +1,11 @@
+/**
+ * The command registry: a plain list. To add a command, write
+ * src/cli/commands/<name>.ts exporting a `Command` (see ../command.ts) and
+ * add it here; main.ts dispatches on `name` and lists `summary` in the help.
+ */
+import type { Command } from '../command.js';
+import { runCommand } from './run.js';
+import { checkCommand } from './check.js';
+import { pipeCommand } from './pipe.js';
+
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand];

@@ -1,0 +1,88 @@
+/** `tractwave pipe CASE`: the bare pipe experiment (teaching and verification). */
+import { performance } from 'node:perf_hooks';
+import { runPipeExperiment } from '../../core/pipe-experiment.js';
+import type { PipeExperimentResult } from '../../core/pipe-experiment-model.js';
+import { loadPipeCase, type LoadedPipeCase } from '../../case/load.js';
+import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
+import { SET_OPTION, type Command } from '../command.js';
+import { fix, table } from '../format.js';
+
+const OPTIONS: OptionSpec[] = [SET_OPTION, { name: 'json', type: 'boolean', description: 'print x and the snapshots as JSON (SI units)' }];
+
+/** rows shown per snapshot in the text table */
+const TABLE_ROWS = 11;
+
+export function pipeJson(r: PipeExperimentResult, wallSeconds: number) {
+  return { x: r.x, snapshots: r.snapshots, mass: r.mass, stats: { ...r.stats, wallSeconds } };
+}
+
+export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number): string {
+  const m = loaded.model;
+  let s = `${m.name}${loaded.file ? `  (${loaded.file})` : ''}\n`;
+  s += `  pipe ${fix(m.pipe.length, 3)} m x ${fix(m.pipe.diameter * 1000, 1)} mm, ends: left ${m.ends.left}, right ${m.ends.right}; `;
+  s += `friction ${m.pipe.wallFriction ? 'on' : 'off'}, wall heat transfer ${m.pipe.wallHeatTransfer ? 'on' : 'off'}\n`;
+  s += `  initial split at ${fix(m.initial.split * m.pipe.length, 3)} m: left ${fix(m.initial.left.pressure / 1000, 2)} kPa ${fix(m.initial.left.temperature, 1)} K, `;
+  s += `right ${fix(m.initial.right.pressure / 1000, 2)} kPa ${fix(m.initial.right.temperature, 1)} K\n`;
+  const n = r.x.length;
+  const idx = Array.from({ length: Math.min(TABLE_ROWS, n) }, (_, k) => Math.round((k * (n - 1)) / Math.max(1, Math.min(TABLE_ROWS, n) - 1)));
+  r.snapshots.forEach((snap, j) => {
+    const p = snap.pressure;
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (const v of p) {
+      lo = Math.min(lo, v);
+      hi = Math.max(hi, v);
+    }
+    s += `\nt = ${fix(snap.time * 1000, 3)} ms   (pressure ${fix(lo / 1000, 2)}–${fix(hi / 1000, 2)} kPa; gas mass ${fix((r.mass[j] ?? NaN) * 1e6, 3)} mg)\n`;
+    s += table(
+      ['x [m]', 'p [kPa]', 'u [m/s]', 'T [K]'],
+      idx.map((i) => [fix(r.x[i]!, 3), fix(p[i]! / 1000, 2), fix(snap.velocity[i]!, 1), fix(snap.temperature[i]!, 1)]),
+    );
+  });
+  s += `\n  ${r.stats.nodes} points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
+  return s;
+}
+
+export const pipeCommand: Command = {
+  name: 'pipe',
+  summary: 'bare pipe experiment: shock tube, pulse reflections',
+  help: `usage: tractwave pipe CASE [--set path=value ...] [--json]
+
+Runs a straight pipe with chosen ends (closed, or open to the initial state of
+that side) from a two-state initial split, and prints pressure, velocity and
+temperature along the pipe at the requested times. For teaching (how a pulse
+reflects) and for checking the solver (Sod's shock tube).
+
+A pipe case:
+  pipe:    { length, diameter, meshSize, wallFriction: true, wallHeatTransfer: true }
+  ends:    { left: closed | open, right: closed | open }
+  initial: { split: 0..1, left: { pressure, temperature, velocity }, right: { ... } }
+  times:   [ 0 s, 1 ms, ... ]
+  numerics: { courant, scheme }
+
+options
+${optionHelp(OPTIONS)}
+
+--json prints x [m] and snapshots [{time [s], pressure [Pa], velocity [m/s],
+temperature [K]}], plus mass [kg] per snapshot and stats.
+
+examples
+  tractwave pipe cases/pipe-sod.yaml
+  tractwave pipe cases/pipe-pulse.yaml --set ends.right=closed
+`,
+  async run(argv, io) {
+    const args = parseArgs(argv, OPTIONS);
+    if (args.help) {
+      io.stdout.write(this.help);
+      return 0;
+    }
+    const [file] = expectPositionals(args, ['CASE'], 'pipe');
+    const loaded = await loadPipeCase(file!, { set: args.list('set'), cwd: io.cwd });
+    const t0 = performance.now();
+    const r = runPipeExperiment(loaded.model);
+    const wallSeconds = (performance.now() - t0) / 1000;
+    if (args.flag('json')) io.stdout.write(`${JSON.stringify(pipeJson(r, wallSeconds))}\n`);
+    else io.stdout.write(pipeReport(loaded, r, wallSeconds));
+    return 0;
+  },
+};

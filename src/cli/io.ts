@@ -1,0 +1,37 @@
+/**
+ * What a command may touch of the outside world. `main.ts` fills it from the
+ * process; tests pass string buffers. Commands write only through it.
+ */
+export interface TextSink {
+  write(text: string): unknown;
+}
+
+export interface CliIo {
+  stdout: TextSink;
+  stderr: TextSink;
+  /** stdout is a terminal */
+  stdoutIsTTY: boolean;
+  /** stdin is a terminal */
+  stdinIsTTY: boolean;
+  /** stderr is a terminal (progress displays) */
+  stderrIsTTY: boolean;
+  /** working directory relative paths are resolved against */
+  cwd: string;
+}
+
+/** An in-memory CliIo for tests and embedding. */
+export function memoryIo(overrides: Partial<Omit<CliIo, 'stdout' | 'stderr'>> = {}): CliIo & { out: () => string; err: () => string } {
+  let out = '';
+  let err = '';
+  return {
+    stdout: { write: (s: string) => (out += s) },
+    stderr: { write: (s: string) => (err += s) },
+    stdoutIsTTY: false,
+    stdinIsTTY: false,
+    stderrIsTTY: false,
+    cwd: process.cwd(),
+    ...overrides,
+    out: () => out,
+    err: () => err,
+  };
+}

@@ -1,0 +1,169 @@
+/**
+ * tractwave's command line: dispatch to a command, or open the terminal view.
+ *
+ *   tractwave [CASE]                 the interactive view on a terminal
+ *   tractwave <command> [options]    see `commands/index.ts`
+ *
+ * `runCli(argv, io)` does everything and returns the exit code (0 ok, 2 bad
+ * input, 1 internal failure); `main()` binds it to the process. Run directly
+ * with `npx tsx src/cli/main.ts ...`, or through bin/tractwave.js.
+ */
+import { existsSync, realpathSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { CaseError } from '../case/errors.js';
+import { loadCase } from '../case/load.js';
+import { SimulationError } from '../core/engine.js';
+import { closest } from '../case/suggest.js';
+import { commands } from './commands/index.js';
+import type { Command } from './command.js';
+import type { CliIo } from './io.js';
+import { defaultCasePath, packageVersion } from './package-root.js';
+import { SAFETY_CAUTION } from './safety.js';
+
+export { type CliIo, memoryIo } from './io.js';
+
+function topHelp(): string {
+  const w = Math.max(...commands.map((c) => c.name.length)) + 2;
+  return `tractwave: step-by-step simulation of a single-cylinder engine's intake tract
+(1-D unsteady runner by the method of characteristics, coupled to cylinder filling)
+
+usage
+  tractwave [CASE]               interactive view on a terminal (default: the bundled demo)
+  tractwave <command> [options]  one of:
+
+${commands.map((c) => `  ${c.name.padEnd(w)}${c.summary}`).join('\n')}
+
+  tractwave <command> --help     the options of one command
+  tractwave --version
+
+case files are YAML (or JSON). A value is a number in SI units (m, m³, Pa, K;
+crank angles in degrees, speeds in rpm) or a string "<number> <unit>": mm, cm,
+m, in; cc, L, ci; Pa, kPa, bar, psi, inH2O; K, degC, degF; deg; rpm.
+Crank angle θ: 0 = TDC at the start of the intake stroke, 720° per cycle.
+
+exit codes: 0 ok (also a run that did not converge, with a warning),
+2 bad input (the message names the field), 1 internal failure.
+
+${SAFETY_CAUTION}
+`;
+}
+
+/** Print an error as one line and give its exit code. */
+export function reportError(e: unknown, io: CliIo): number {
+  if (e instanceof CaseError) {
+    io.stderr.write(`error: ${e.path ? `${e.path}: ` : ''}${e.detail}\n`);
+    return 2;
+  }
+  if (e instanceof SimulationError) {
+    io.stderr.write(`error: the simulation ${e.code === 'diverged' ? 'diverged' : 'could not start'}: ${e.message}\n`);
+    return e.code === 'invalid' ? 2 : 1;
+  }
+  const msg = e instanceof Error ? e.message : String(e);
+  io.stderr.write(`internal error: ${msg}\n`);
+  if (process.env.TRACTWAVE_DEBUG && e instanceof Error && e.stack) io.stderr.write(`${e.stack}\n`);
+  else io.stderr.write('(set TRACTWAVE_DEBUG=1 to see where; please report it with the case file)\n');
+  return 1;
+}
+
+function findCommand(name: string): Command | undefined {
+  return commands.find((c) => c.name === name);
+}
+
+function looksLikeCaseFile(arg: string): boolean {
+  return /\.(ya?ml|json)$/i.test(arg) || arg.includes('/') || arg.includes('\\');
+}
+
+interface UiModule {
+  startUi?: (casePath: string) => Promise<number>;
+}
+
+async function importUi(): Promise<UiModule | undefined> {
+  try {
+    // @ts-ignore -- src/ui/index.tsx is written in parallel; its absence is handled below
+    return (await import('../ui/index.js')) as UiModule;
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    if (code === 'ERR_MODULE_NOT_FOUND') return undefined;
+    throw e;
+  }
+}
+
+/** `tractwave [CASE]`: the interactive view. */
+async function interactive(argv: readonly string[], io: CliIo): Promise<number> {
+  if (argv.length > 1) throw new CaseError(argv[1]!, 'unexpected argument (usage: tractwave [CASE], or tractwave <command> ...; see --help)', 'option');
+  const given = argv[0];
+  const file = given ?? defaultCasePath();
+  if (!(io.stdinIsTTY && io.stdoutIsTTY)) {
+    io.stderr.write(
+      'error: the interactive view needs a terminal (stdin and stdout are not a TTY); ' +
+        `use \`tractwave run ${given ?? 'CASE'}\` for one speed or \`tractwave sweep ${given ?? 'CASE'}\` for a speed range\n`,
+    );
+    return 2;
+  }
+  const loaded = await loadCase(file, { cwd: io.cwd }); // bad input: exit 2 before any screen is drawn
+  const ui = await importUi();
+  if (ui?.startUi) return ui.startUi(resolve(io.cwd, file));
+  io.stderr.write('note: the interactive view is not built in this version; showing the run summary instead\n');
+  return findCommand('run')!.run([loaded.file], io);
+}
+
+export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
+  try {
+    const first = argv[0];
+    if (first === '-h' || first === '--help' || first === 'help') {
+      const sub = first === 'help' && argv[1] !== undefined ? findCommand(argv[1]) : undefined;
+      if (first === 'help' && argv[1] !== undefined && !sub) throw new CaseError(argv[1], `unknown command${hint(argv[1])}`, 'option');
+      io.stdout.write(sub ? sub.help : topHelp());
+      return 0;
+    }
+    if (first === '--version' || first === '-V') {
+      io.stdout.write(`tractwave ${packageVersion()}\n`);
+      return 0;
+    }
+    if (first === undefined) return await interactive([], io);
+    const cmd = findCommand(first);
+    if (cmd) return await cmd.run(argv.slice(1), io);
+    if (first.startsWith('-')) throw new CaseError(first, 'unknown option (see tractwave --help)', 'option');
+    if (existsSync(resolve(io.cwd, first)) || looksLikeCaseFile(first)) return await interactive(argv, io);
+    const guess = closest(first, commands.map((x) => x.name));
+    throw new CaseError(first, `unknown command${guess ? `; did you mean '${guess}'?` : ''} (commands: ${commands.map((c) => c.name).join(', ')})`, 'option');
+  } catch (e) {
+    return reportError(e, io);
+  }
+}
+
+function hint(word: string): string {
+  const c = closest(word, commands.map((x) => x.name));
+  return c ? ` (did you mean '${c}'?)` : '';
+}
+
+/** Bind runCli to the process. */
+export async function main(argv: readonly string[] = process.argv.slice(2)): Promise<void> {
+  // a closed pipe (tractwave run ... | head) is not an error
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw e;
+  });
+  const io: CliIo = {
+    stdout: process.stdout,
+    stderr: process.stderr,
+    stdoutIsTTY: process.stdout.isTTY === true,
+    stdinIsTTY: process.stdin.isTTY === true,
+    stderrIsTTY: process.stderr.isTTY === true,
+    cwd: process.cwd(),
+  };
+  process.exitCode = await runCli(argv, io);
+}
+
+function isEntry(): boolean {
+  const script = process.argv[1];
+  if (!script) return false;
+  try {
+    return realpathSync(script) === realpathSync(fileURLToPath(import.meta.url));
+  } catch {
+    return false;
+  }
+}
+
+if (isEntry()) await main();

@@ -1,0 +1,152 @@
+/**
+ * Output of one simulated operating point: the JSON of `run` (DESIGN §3),
+ * the per-degree CSV trace, and the text summary for a tuner.
+ */
+import type { PointResult } from '../core/model.js';
+import type { PulseTiming } from '../analysis/pulse.js';
+import type { LoadedCase } from '../case/load.js';
+import { thetaToCard } from '../case/to-model.js';
+import { card, deg, fix, gps, kPa, mg, mm, pct, row, wrap } from './format.js';
+
+/** mass imbalance above which a warning is printed [-] */
+export const MASS_IMBALANCE_WARNING = 0.005;
+
+export interface RunJson {
+  rpm: number;
+  converged: boolean;
+  cycles: number;
+  volumetricEfficiency: number;
+  deliveredMass: number;
+  inletMass: number;
+  massImbalance: number;
+  trappedMass: number;
+  ivcPressure: number;
+  residualFraction: number;
+  valvePressureAtIvo: number;
+  valvePressureAtIvc: number;
+  peakReverseFlow: number;
+  events: { ivo: number; ivc: number; evo: number; evc: number };
+  pulse: PulseTiming;
+  stats: { nodes: number; steps: number; wallSeconds: number; scheme: string };
+  trace: {
+    crank: number[];
+    valvePressure: number[];
+    valveFlow: number[];
+    cylinderPressure: number[];
+    cylinderMass: number[];
+    lift: number[];
+  };
+}
+
+export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number): RunJson {
+  const t = r.trace;
+  return {
+    rpm: r.rpm,
+    converged: r.converged,
+    cycles: r.cycles,
+    volumetricEfficiency: r.volumetricEfficiency,
+    deliveredMass: r.deliveredMass,
+    inletMass: r.inletMass,
+    massImbalance: r.massImbalance,
+    trappedMass: r.trappedMass,
+    ivcPressure: r.ivcPressure,
+    residualFraction: r.residualFraction,
+    valvePressureAtIvo: r.valvePressureAtIvo,
+    valvePressureAtIvc: r.valvePressureAtIvc,
+    peakReverseFlow: r.peakReverseFlow,
+    events: { ivo: r.events.ivo, ivc: r.events.ivc, evo: r.events.evo, evc: r.events.evc },
+    pulse,
+    stats: { nodes: r.stats.nodes, steps: r.stats.steps, wallSeconds, scheme: r.stats.scheme },
+    trace: {
+      crank: Array.from(t.crank),
+      valvePressure: Array.from(t.valvePressure),
+      valveFlow: Array.from(t.valveFlow),
+      cylinderPressure: Array.from(t.cylinderPressure),
+      cylinderMass: Array.from(t.cylinderMass),
+      lift: Array.from(t.lift),
+    },
+  };
+}
+
+/** CSV columns: name with unit, and the trace array it comes from. */
+export const TRACE_COLUMNS = [
+  ['crank_deg', 'crank'],
+  ['valve_pressure_Pa', 'valvePressure'],
+  ['valve_flow_kg_per_s', 'valveFlow'],
+  ['cylinder_pressure_Pa', 'cylinderPressure'],
+  ['cylinder_mass_kg', 'cylinderMass'],
+  ['intake_lift_m', 'lift'],
+  ['exhaust_lift_m', 'exhaustLift'],
+  ['inlet_flow_kg_per_s', 'inletFlow'],
+  ['plenum_pressure_Pa', 'plenumPressure'],
+] as const;
+
+export function traceCsv(r: PointResult): string {
+  const t = r.trace;
+  const lines = [TRACE_COLUMNS.map(([h]) => h).join(',')];
+  const n = t.crank.length;
+  for (let i = 0; i < n; i++) lines.push(TRACE_COLUMNS.map(([, k]) => String(t[k][i] ?? '')).join(','));
+  return lines.join('\n') + '\n';
+}
+
+/** Warnings for stderr: non-convergence and a poor mass balance. */
+export function runWarnings(r: PointResult, maxCycles: number): string[] {
+  const w: string[] = [];
+  if (!r.converged) {
+    const h = r.history;
+    const last = h.length >= 2 ? Math.abs(h[h.length - 1]! - h[h.length - 2]!) / Math.abs(h[h.length - 1]!) : NaN;
+    w.push(
+      `warning: not converged after ${r.cycles} cycles (cap numerics.maxCycles = ${maxCycles}; last change ${Number.isFinite(last) ? last.toExponential(1) : '?'}): the numbers are not yet periodic`,
+    );
+  }
+  if (Math.abs(r.massImbalance) > MASS_IMBALANCE_WARNING)
+    w.push(
+      `warning: mass imbalance ${pct(r.massImbalance, 2)} (runner inlet vs intake valve) is above ${pct(MASS_IMBALANCE_WARNING)}: try a smaller numerics.meshSize`,
+    );
+  return w;
+}
+
+/** The events block: θ and card form. */
+export function eventLines(events: PointResult['events']): string {
+  return (
+    row('intake opens (IVO)', `θ ${deg(events.ivo, 1).padStart(6)}   ${card(thetaToCard.intakeOpens(events.ivo), 'BTDC', 'ATDC', 1)}`) +
+    row('intake closes (IVC)', `θ ${deg(events.ivc, 1).padStart(6)}   ${card(thetaToCard.intakeCloses(events.ivc), 'ABDC', 'BBDC', 1)}`) +
+    row('exhaust opens (EVO)', `θ ${deg(events.evo, 1).padStart(6)}   ${card(thetaToCard.exhaustOpens(events.evo), 'BBDC', 'ABDC', 1)}`) +
+    row('exhaust closes (EVC)', `θ ${deg(events.evc, 1).padStart(6)}   ${card(thetaToCard.exhaustCloses(events.evc), 'ATDC', 'BTDC', 1)}`)
+  );
+}
+
+export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTiming, wallSeconds: number): string {
+  const m = loaded.model;
+  let s = '';
+  s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${loaded.file})` : ''}\n`;
+  s += r.converged
+    ? `  periodic after ${r.cycles} cycles (tolerance ${m.numerics.tolerance})\n\n`
+    : `  NOT converged after ${r.cycles} cycles: figures are from the last cycle run\n\n`;
+  s += row('volumetric efficiency', pct(r.volumetricEfficiency));
+  s += row('delivered mass', `${mg(r.deliveredMass)} per cycle (through the intake valve)`);
+  s += row('trapped mass at IVC', mg(r.trappedMass));
+  s += row('residual gas', pct(r.residualFraction));
+  s += row('cylinder pressure at IVC', kPa(r.ivcPressure));
+  s += row('valve pressure at IVO', kPa(r.valvePressureAtIvo));
+  s += row('valve pressure at IVC', kPa(r.valvePressureAtIvc));
+  s += row('peak reverse flow', gps(r.peakReverseFlow));
+  const warn = Math.abs(r.massImbalance) > MASS_IMBALANCE_WARNING ? '  (above 0.5 %: see warning)' : '';
+  s += row('mass balance', `inlet ${mg(r.inletMass)} vs valve ${mg(r.deliveredMass)}: ${pct(r.massImbalance, 2)}${warn}`);
+  s += '\npulse timing\n';
+  s += row('wave round trip 2L/a', `${deg(pulse.roundTripDegrees, 1)} of crank (L ${mm(pulse.runnerLength, 0)}, a ${fix(pulse.soundSpeed, 0)} m/s)`);
+  s += row('quarter-wave, wave order', `${fix(pulse.quarterWaveFrequency, 1)} Hz, order ${fix(pulse.waveOrder, 2)} at this speed`);
+  const pk = pulse.lastPeakBeforeIvc;
+  s += row(
+    'last peak before IVC',
+    pk ? `θ ${deg(pk.crank, 1)}, ${deg(Math.abs(pk.offsetFromIvc), 1)} ${pk.offsetFromIvc <= 0 ? 'before' : 'after'} IVC, +${kPa(pk.pressureAboveReference)}` : 'none in the open period',
+  );
+  s += row('at IVC', `${kPa(pulse.atIvc.pressureAboveReference)} vs ${pulse.referenceKind} (ringing phase ${fix(pulse.atIvc.ringingPhase, 0)}°)`);
+  s += wrap(`  verdict: ${pulse.verdict}`);
+  s += wrap(`  opening: ${pulse.openingNote}`);
+  s += '\nevents (θ: 0 = TDC at the start of the intake stroke; card form beside)\n';
+  s += eventLines(r.events);
+  s += `\n  ${r.stats.nodes} runner points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
+  s += '  results are estimates: verify on an engine.\n';
+  return s;
+}
