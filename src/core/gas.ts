@@ -39,3 +39,15 @@ export function pressureFromSound(a: number, A: number): number {
 export function soundFromPressure(pressurePa: number, A: number): number {
   return A * Math.pow(pressurePa / P_REF, 1 / PEXP);
 }
+
+/**
+ * x^PEXP, the pressure ratio from a sound-speed ratio. With γ = 1.4 the
+ * exponent is exactly 7, so this is four multiplications instead of a
+ * general power (it sits in every boundary residual and node update).
+ * A γ other than 1.4 must replace it with Math.pow(x, PEXP).
+ */
+export function powP(x: number): number {
+  const x2 = x * x;
+  return x2 * x2 * x2 * x;
+}
+if (Math.abs(PEXP - 7) > 1e-9) throw new Error('gas.ts: powP assumes γ = 1.4 (PEXP = 7)');

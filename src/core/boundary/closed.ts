@@ -3,13 +3,13 @@
  * reflects with its own sign. With w = 0 the end sound speed is the incoming
  * invariant itself, a_e = J = λ·Ap, and the entropy level is the pipe gas's.
  */
-import { P_REF, PEXP } from '../gas.js';
+import { P_REF, powP } from '../gas.js';
 import type { Boundary, EndState, Incoming } from './types.js';
 
 export function solveClosed(inc: Incoming, out: EndState): void {
   out.velocity = 0;
   out.entropy = inc.entropy;
-  out.pressure = P_REF * Math.pow(inc.lambda, PEXP);
+  out.pressure = P_REF * powP(inc.lambda);
   out.massFlow = 0;
   out.enthalpyFlow = 0;
   out.choked = false;

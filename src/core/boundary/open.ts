@@ -13,7 +13,7 @@
  * X ∈ [Λ, min(X_res, Λ/(1 − G1))] of
  *   R(X) = p_e + K·½ρ_e·w² − p_res·(a_e/a_res)^PEXP.
  */
-import { CP, G1, GAMMA, P_REF, PEXP, R_AIR } from '../gas.js';
+import { CP, G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import { bracketedRoot, type Residual } from './solve.js';
 import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
 
@@ -38,9 +38,9 @@ export class OpenEnd implements Boundary, Residual {
     const r = this.lam / X - 1;
     const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
     const w = (ae * r) / G1;
-    const pe = P_REF * Math.pow(X, PEXP);
+    const pe = P_REF * powP(X);
     const rho = pe / (R_AIR * ((ae * ae) / GR));
-    return pe + this.entryLoss * 0.5 * rho * w * w - res.pressure * Math.pow(ae / this.aRes, PEXP);
+    return pe + this.entryLoss * 0.5 * rho * w * w - res.pressure * powP(ae / this.aRes);
   }
 
   solve(inc: Incoming, out: EndState): void {
@@ -58,7 +58,7 @@ export class OpenEnd implements Boundary, Residual {
       const ae = ap * X;
       const w = (ap * (lam - X)) / G1;
       const Te = (ae * ae) / GR;
-      const pe = P_REF * Math.pow(X, PEXP);
+      const pe = P_REF * powP(X);
       out.pressure = pe;
       out.velocity = w;
       out.entropy = ap;
@@ -83,7 +83,7 @@ export class OpenEnd implements Boundary, Residual {
     const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
     const w = (ae * r) / G1;
     const Te = (ae * ae) / GR;
-    const pe = P_REF * Math.pow(X, PEXP);
+    const pe = P_REF * powP(X);
     out.pressure = pe;
     out.velocity = w;
     out.entropy = ae / X;

@@ -25,7 +25,7 @@
  * When the bracket's sonic end still cannot pass what the restriction would,
  * the pipe end is choked and sits at the sonic bound.
  */
-import { CP, G1, GAMMA, P_REF, PEXP, R_AIR } from '../gas.js';
+import { CP, G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import { orificeMassFlow } from '../flow.js';
 import { bracketedRoot, type Residual } from './solve.js';
 import { solveClosed } from './closed.js';
@@ -48,7 +48,7 @@ export class RestrictedEnd implements Boundary, Residual {
   /** residual for the current mode: pipe-end mass flow minus nozzle flow */
   residual(X: number): number {
     const res = this.reservoir;
-    const pe = P_REF * Math.pow(X, PEXP);
+    const pe = P_REF * powP(X);
     if (this.mode > 0) {
       const ae = this.ap * X;
       const w = (this.ap * (this.lam - X)) / G1;
@@ -76,7 +76,7 @@ export class RestrictedEnd implements Boundary, Residual {
     this.lam = lam;
     this.ap = inc.entropy;
     this.pipeArea = inc.area;
-    const pRest = P_REF * Math.pow(lam, PEXP);
+    const pRest = P_REF * powP(lam);
     let X: number;
     out.choked = false;
     if (pRest >= res.pressure) {
@@ -92,7 +92,7 @@ export class RestrictedEnd implements Boundary, Residual {
       const ae = this.ap * X;
       const w = (this.ap * (lam - X)) / G1;
       const Te = (ae * ae) / GR;
-      const pe = P_REF * Math.pow(X, PEXP);
+      const pe = P_REF * powP(X);
       out.pressure = pe;
       out.velocity = w;
       out.entropy = this.ap;
@@ -121,7 +121,7 @@ export class RestrictedEnd implements Boundary, Residual {
     const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
     const w = (ae * r) / G1;
     const Te = (ae * ae) / GR;
-    const pe = P_REF * Math.pow(X, PEXP);
+    const pe = P_REF * powP(X);
     out.pressure = pe;
     out.velocity = w;
     out.entropy = ae / X;

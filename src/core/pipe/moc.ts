@@ -29,13 +29,15 @@
  * Mass: interpolating a (and density ∝ a⁵) loses mass at steep fronts; this
  * scheme is not conservative. `mass()` lets the stepper measure the drift.
  */
-import { CP, G1, GAMMA, P_REF, PEXP, R_AIR } from '../gas.js';
+import { CP, G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import type { EndState, Incoming } from '../boundary/types.js';
 import type { Mesh } from './mesh.js';
 import type { PipeScheme, PipeWall, Side } from './scheme.js';
 
 const GM1 = GAMMA - 1;
 const GR = GAMMA * R_AIR;
+const INV_GR = 1 / GR;
+const INV_2G1 = 1 / (2 * G1);
 
 function minmod(a: number, b: number): number {
   if (a * b <= 0) return 0;
@@ -55,8 +57,11 @@ export class CharacteristicsScheme implements PipeScheme {
   private readonly tw: number;
   /** conservative density per node [kg/m³] (mass correction) */
   private rhoC: Float64Array;
-  /** node velocities at the old level [m/s] (mass correction) */
-  private fluxOld: Float64Array;
+  /** old-level sound speed and velocity per node [m/s] (scratch of a step) */
+  private av: Float64Array;
+  private uv: Float64Array;
+  /** 2f/D per node [1/m] */
+  private kf: Float64Array;
 
   constructor(
     readonly mesh: Mesh,
@@ -66,7 +71,10 @@ export class CharacteristicsScheme implements PipeScheme {
   ) {
     const n = mesh.n;
     this.rhoC = new Float64Array(n);
-    this.fluxOld = new Float64Array(n);
+    this.av = new Float64Array(n);
+    this.uv = new Float64Array(n);
+    this.kf = new Float64Array(n);
+    for (let i = 0; i < n; i++) this.kf[i] = (2 * wall.friction) / mesh.diameter[i]!;
     this.lam = new Float64Array(n);
     this.bet = new Float64Array(n);
     this.ent = new Float64Array(n);
@@ -175,63 +183,88 @@ export class CharacteristicsScheme implements PipeScheme {
     const n = this.mesh.n;
     const mesh = this.mesh;
     const sigma = dt / mesh.dx;
-    const { lam, bet, ent, nl, nb, ne } = this;
+    const { lam, bet, ent, nl, nb, ne, av, uv, kf } = this;
+    const dlnFa = mesh.dlnF;
     const fr = this.f > 0;
-    if (this.massCorrection) {
-      const fo = this.fluxOld;
-      for (let i = 0; i < n; i++) fo[i] = (lam[i]! - bet[i]!) / (2 * G1);
+    const heat = this.heat;
+    const tw = this.tw;
+    // old-level sound speed and velocity, once per node
+    for (let i = 0; i < n; i++) {
+      const l = lam[i]!;
+      const b = bet[i]!;
+      av[i] = 0.5 * (l + b);
+      uv[i] = (l - b) * INV_2G1;
     }
     for (let i = 1; i < n - 1; i++) {
-      const li = lam[i]!;
-      const bi = bet[i]!;
-      const ai = 0.5 * (li + bi);
-      const ui = (li - bi) / (2 * G1);
-      // path line foot
-      const kp = ui >= 0 ? i - 1 : i + 1;
-      const ak = 0.5 * (lam[kp]! + bet[kp]!);
-      const uk = (lam[kp]! - bet[kp]!) / (2 * G1);
-      const up = Math.abs(ui);
-      let sp = (up * sigma) / (1 + (up - (ui >= 0 ? uk : -uk)) * sigma);
-      if (sp < 0) sp = 0;
-      else if (sp > 1) sp = 1;
-      const Ap = ent[i]! + sp * (ent[kp]! - ent[i]!);
-      const d = mesh.diameter[i]!;
-      const dlnF = mesh.dlnF[i]!;
+      const ai = av[i]!;
+      const ui = uv[i]!;
+      const Ai = ent[i]!;
+      const aL = av[i - 1]!;
+      const uL = uv[i - 1]!;
+      const aRt = av[i + 1]!;
+      const uRt = uv[i + 1]!;
+      const dlnF = dlnFa[i]!;
+      const k = kf[i]!; // 2f/D
+      // path line foot (upwind side by the sign of u)
+      let Ap: number;
+      let aP: number;
+      let uP: number;
+      if (ui >= 0) {
+        let sp = (ui * sigma) / (1 + (ui - uL) * sigma);
+        sp = sp < 0 ? 0 : sp > 1 ? 1 : sp;
+        Ap = Ai + sp * (ent[i - 1]! - Ai);
+        aP = ai + sp * (aL - ai);
+        uP = ui + sp * (uL - ui);
+      } else {
+        let sp = (-ui * sigma) / (1 + (uRt - ui) * sigma);
+        sp = sp < 0 ? 0 : sp > 1 ? 1 : sp;
+        Ap = Ai + sp * (ent[i + 1]! - Ai);
+        aP = ai + sp * (aRt - ai);
+        uP = ui + sp * (uRt - ui);
+      }
       let Anew = Ap;
       if (fr) {
-        const aP = ai + sp * (ak - ai);
-        const uP = ui + sp * (uk - ui);
-        const G = this.friction(uP, d);
-        Anew = Ap * (1 + ((this.heatSource(aP, uP, d, G) * 0.5) / aP) * dt);
+        const au = uP < 0 ? -uP : uP;
+        const G = k * uP * au;
+        const q = heat ? k * au * CP * (tw - (aP * aP) * INV_GR) : 0;
+        Anew = Ap * (1 + ((GM1 * (q + uP * G)) / (2 * aP * aP)) * dt);
       }
       ne[i] = Anew;
-      // λ from the left
+      // λ arriving from the left: foot where x_i − x = (u + a)·dt
       {
-        const s = this.footFraction(i, i - 1, 1, sigma);
+        const ci = ai + ui;
+        let s = (ci * sigma) / (1 + (ci - (aL + uL)) * sigma);
+        s = s < 0 ? 0 : s > 1 ? 1 : s;
+        const li = lam[i]!;
         const lR = li + s * (lam[i - 1]! - li);
-        const bR = bi + s * (bet[i - 1]! - bi);
-        const AR = ent[i]! + s * (ent[i - 1]! - ent[i]!);
-        const a = 0.5 * (lR + bR);
-        const u = (lR - bR) / (2 * G1);
+        const a = ai + s * (aL - ai);
+        const u = ui + s * (uL - ui);
+        const AR = Ai + s * (ent[i - 1]! - Ai);
         let src = -a * u * dlnF;
         if (fr) {
-          const G = this.friction(u, d);
-          src += this.heatSource(a, u, d, G) - G;
+          const au = u < 0 ? -u : u;
+          const G = k * u * au;
+          const q = heat ? k * au * CP * (tw - a * a * INV_GR) : 0;
+          src += (GM1 * (q + u * G)) / a - G;
         }
         nl[i] = lR + (a * (Anew - AR)) / AR + G1 * src * dt;
       }
-      // β from the right
+      // β arriving from the right: foot where x − x_i = (a − u)·dt
       {
-        const s = this.footFraction(i, i + 1, -1, sigma);
-        const lS = li + s * (lam[i + 1]! - li);
+        const ci = ai - ui;
+        let s = (ci * sigma) / (1 + (ci - (aRt - uRt)) * sigma);
+        s = s < 0 ? 0 : s > 1 ? 1 : s;
+        const bi = bet[i]!;
         const bS = bi + s * (bet[i + 1]! - bi);
-        const AS = ent[i]! + s * (ent[i + 1]! - ent[i]!);
-        const a = 0.5 * (lS + bS);
-        const u = (lS - bS) / (2 * G1);
+        const a = ai + s * (aRt - ai);
+        const u = ui + s * (uRt - ui);
+        const AS = Ai + s * (ent[i + 1]! - Ai);
         let src = -a * u * dlnF;
         if (fr) {
-          const G = this.friction(u, d);
-          src += this.heatSource(a, u, d, G) + G;
+          const au = u < 0 ? -u : u;
+          const G = k * u * au;
+          const q = heat ? k * au * CP * (tw - a * a * INV_GR) : 0;
+          src += (GM1 * (q + u * G)) / a + G;
         }
         nb[i] = bS + (a * (Anew - AS)) / AS + G1 * src * dt;
       }
@@ -269,8 +302,8 @@ export class CharacteristicsScheme implements PipeScheme {
    */
   private correctMass(dt: number, inLeft: number, outRight: number): void {
     const { n, dx, area } = this.mesh;
-    const { lam, bet, ent, rhoC, fluxOld } = this;
-    const uOld = fluxOld; // holds the old velocities (see step)
+    const { lam, bet, ent, rhoC } = this;
+    const uOld = this.uv; // old-level velocities (see step)
     const sigma = dt / dx;
     let prevFlux = inLeft;
     const corrected = this.nl; // scratch
@@ -300,12 +333,13 @@ export class CharacteristicsScheme implements PipeScheme {
       const rho = corrected[i]!;
       const a0 = 0.5 * (lam[i]! + bet[i]!);
       const u = (lam[i]! - bet[i]!) / (2 * G1);
-      const p = P_REF * Math.pow(a0 / ent[i]!, PEXP);
+      const A0 = ent[i]!;
+      const p = P_REF * powP(a0 / A0);
       const a = Math.sqrt((GAMMA * p) / rho);
       rhoC[i] = rho;
       lam[i] = a + G1 * u;
       bet[i] = a - G1 * u;
-      ent[i] = a * Math.pow(P_REF / p, 1 / PEXP);
+      ent[i] = (a * A0) / a0; // same pressure: A ∝ a
     }
   }
 
@@ -319,7 +353,7 @@ export class CharacteristicsScheme implements PipeScheme {
   /** density at node i [kg/m³] */
   private rho(i: number): number {
     const a = 0.5 * (this.lam[i]! + this.bet[i]!);
-    const p = P_REF * Math.pow(a / this.ent[i]!, PEXP);
+    const p = P_REF * powP(a / this.ent[i]!);
     return (p * GR) / (R_AIR * a * a);
   }
 
@@ -337,7 +371,7 @@ export class CharacteristicsScheme implements PipeScheme {
     const { lam, bet, ent } = this;
     for (let i = 0; i < this.mesh.n; i++) {
       const a = 0.5 * (lam[i]! + bet[i]!);
-      p[i] = P_REF * Math.pow(a / ent[i]!, PEXP);
+      p[i] = P_REF * powP(a / ent[i]!);
       u[i] = (lam[i]! - bet[i]!) / (2 * G1);
       T[i] = (a * a) / GR;
     }
