@@ -82,21 +82,23 @@ export async function readCaseText(file: string, cwd?: string): Promise<string> 
   }
 }
 
-function where(file: string, linePos: readonly { line: number; col: number }[] | undefined): string {
-  const p = linePos?.[0];
+function where(file: string, lines: YAML.LineCounter, offset: number | undefined): string {
   const name = file || 'case';
-  return p ? `${name}:${p.line}:${p.col}` : name;
+  if (offset === undefined) return name;
+  const p = lines.linePos(offset);
+  return `${name}:${p.line}:${p.col}`;
 }
 
 /** Parse YAML text as plain data (a mapping at the top). */
 export function parseYamlText(text: string, file = ''): Record<string, unknown> {
   if (text.length > MAX_CASE_BYTES) throw new CaseError(file || 'case', `text is larger than ${MAX_CASE_BYTES} bytes (1 MB)`, 'file');
-  const doc = YAML.parseDocument(text, YAML_OPTIONS);
+  const lines = new YAML.LineCounter();
+  const doc = YAML.parseDocument(text, { ...YAML_OPTIONS, lineCounter: lines });
   const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
   if (problem) {
     const first = problem.message.split('\n')[0]!.replace(/ at line \d+, column \d+:?$/, '');
     const msg = problem.code === 'TAG_RESOLVE_FAILED' ? `${first} (case files are plain data: no custom tags)` : first;
-    throw new CaseError(where(file, problem.linePos), `malformed YAML: ${msg}`, 'yaml');
+    throw new CaseError(where(file, lines, problem.pos[0]), `malformed YAML: ${msg}`, 'yaml');
   }
   let data: unknown;
   try {

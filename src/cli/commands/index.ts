@@ -7,5 +7,7 @@ import type { Command } from '../command.js';
 import { runCommand } from './run.js';
 import { checkCommand } from './check.js';
 import { pipeCommand } from './pipe.js';
+import { sweepCommand } from './sweep.js';
+import { tuneCommand } from './tune.js';
 
-export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand];
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand];
