@@ -29,7 +29,8 @@
  *                   IVO → IVC; its offset from IVC is θ_peak − θ_IVC
  *                   (negative = before the valve closes).
  *   peak after IVC  when the pressure is still rising at IVC, the compression
- *                   peak that follows within half a ringing period.
+ *                   peak that follows within half a ringing period (up to
+ *                   LATE_DEGREES after: "a little late"; more: "late").
  *   ringing phase   the phase of p(θ) read as a ringing about p_ref:
  *                   φ = atan2(−(dp/dθ)·P/(2π), p − p_ref), in [0°, 360°).
  *                   0° = at a compression peak, 90° = falling through p_ref,
@@ -44,6 +45,8 @@ import { quarterWaveFrequency, endCorrection } from './estimates.js';
 
 /** half-width of the neighbourhood a peak must dominate [deg] */
 export const PEAK_HALF_WINDOW = 3;
+/** a compression peak up to this many degrees after IVC is "a little late"; later is "late" */
+export const LATE_DEGREES = 10;
 /** degrees trimmed at each end of the closed period before measuring the ringing */
 const RINGING_TRIM = 5;
 
@@ -98,6 +101,12 @@ export interface PulseTiming {
   atIvc: ValveEventPulse;
   lastPeakBeforeIvc: PressurePeak | null;
   peakAfterIvc: PressurePeak | null;
+  /**
+   * offset from IVC of the compression peak the verdict speaks of [deg]: the
+   * peak after IVC when the wave is helping and still rising at IVC, else the
+   * last peak before IVC; null when there is none
+   */
+  peakOffsetFromIvc: number | null;
   effect: WaveEffect;
   /** one line of plain words for the closing event, following from the numbers above */
   verdict: string;
@@ -356,8 +365,10 @@ export function pulseTiming(result: PointResult, model?: EngineModel, options: P
   const before = lastPeakBeforeIvc;
   let verdict: string;
   if (effect === 'helping') {
-    if (peakAfterIvc) {
-      verdict = `compression wave still rising as the valve closes (peaks ${fmtDeg(peakAfterIvc.offsetFromIvc)} after): the wave is helping, a little late (${atClose})`;
+    if (peakAfterIvc && peakAfterIvc.offsetFromIvc <= LATE_DEGREES) {
+      verdict = `compression wave peaks ${fmtDeg(peakAfterIvc.offsetFromIvc)} after the valve closes: the wave is helping, a little late (${atClose})`;
+    } else if (peakAfterIvc) {
+      verdict = `compression wave still rising as the valve closes (peaks ${fmtDeg(peakAfterIvc.offsetFromIvc)} after): the wave is helping, but arrives late (${atClose})`;
     } else if (before && Math.abs(before.offsetFromIvc) < 0.5) {
       verdict = `compression wave peaks as the valve closes: the wave is helping (${atClose})`;
     } else if (before) {
@@ -400,6 +411,7 @@ export function pulseTiming(result: PointResult, model?: EngineModel, options: P
     atIvc,
     lastPeakBeforeIvc,
     peakAfterIvc,
+    peakOffsetFromIvc: ((effect === 'helping' ? peakAfterIvc : null) ?? lastPeakBeforeIvc)?.offsetFromIvc ?? null,
     effect,
     verdict,
     openingNote,

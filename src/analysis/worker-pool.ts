@@ -15,10 +15,12 @@
  *     from this package's node_modules) and then imports worker.ts;
  *   - compiled (dist/analysis/worker-pool.js): new Worker(dist/analysis/worker.js);
  *   - single-file bundle (dist/tractwave.mjs): every module shares the
- *     bundle's import.meta.url, so the bundle file itself is started as the
- *     worker. worker.ts, bundled in, serves chunks when workerData carries
- *     SWEEP_WORKER_FLAG; the bundle's entry must not run the command line on
- *     such a thread (guard it with isSweepWorker() or isMainThread).
+ *     bundle's import.meta.url, so the worker imports the bundle itself,
+ *     through an eval bootstrap. worker.ts, bundled in, serves chunks when
+ *     workerData carries SWEEP_WORKER_FLAG. On that thread process.argv[1]
+ *     is '[worker eval]', so an entry check that compares argv[1] with the
+ *     bundle's path does not start the command line; an entry that runs
+ *     unconditionally must check isMainThread (or isSweepWorker()).
  */
 import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
@@ -65,7 +67,13 @@ function startWorker(): Worker {
     case 'compiled':
       return new Worker(new URL('./worker.js', here), { workerData });
     case 'bundle':
-      return new Worker(new URL(here), { workerData });
+      // an eval bootstrap, so the worker's process.argv[1] is '[worker eval]',
+      // not the bundle: the bundle's "am I the entry script?" check stays false
+      // and only worker.ts (bundled in) acts, on SWEEP_WORKER_FLAG
+      return new Worker(`import(${JSON.stringify(here)}).catch((e) => { console.error(e); process.exit(1); });`, {
+        eval: true,
+        workerData,
+      });
   }
 }
 

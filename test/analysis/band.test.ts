@@ -110,3 +110,29 @@ describe('summary and ranking', () => {
     expect(r[r.length - 1]!.to).toBeCloseTo(1.2, 12);
   });
 });
+
+import { winnerAt, winningSpans } from '../../src/analysis/compare.js';
+
+describe('compare: where each design wins', () => {
+  it('groups consecutive speeds with the same winner', () => {
+    const rpms = [3000, 4000, 5000, 6000, 7000, 8000];
+    const a = [0.9, 0.95, 1.0, 1.0, 0.9, 0.85];
+    const b = [0.85, 0.9, 1.0005, 1.05, 1.0, 0.8];
+    const spans = winningSpans(rpms, a, b);
+    expect(spans.map((s) => [s.winner, s.from, s.to])).toEqual([
+      ['A', 3000, 4000],
+      ['even', 5000, 5000],
+      ['B', 6000, 7000],
+      ['A', 8000, 8000],
+    ]);
+    expect(spans[2]!.largestDifference).toBeCloseTo(0.1, 12);
+  });
+  it.each([
+    [1, 1.002, 'B'],
+    [1, 0.998, 'A'],
+    [1, 1.0009, 'even'],
+    [1, Number.NaN, 'even'],
+  ] as const)('a %d, b %d → %s', (a, b, w) => {
+    expect(winnerAt(a, b)).toBe(w);
+  });
+});

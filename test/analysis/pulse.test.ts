@@ -123,6 +123,7 @@ describe('verdict follows from the numbers', () => {
     expect(p.verdict).toContain('closes on an expansion');
     expect(p.verdict).toContain('costing charge');
     expect(p.verdict).toContain('50° before closing');
+    expect(p.peakOffsetFromIvc).toBeCloseTo(-50, 0);
   });
 
   it('still rising at closing: helping, late, with the peak after IVC', () => {
@@ -130,6 +131,15 @@ describe('verdict follows from the numbers', () => {
     expect(p.effect).toBe('helping');
     expect(p.peakAfterIvc!.offsetFromIvc).toBeCloseTo(10, 0);
     expect(p.verdict).toContain('10° after');
+    expect(p.verdict).toContain('a little late');
+    expect(p.peakOffsetFromIvc).toBeCloseTo(10, 0);
+  });
+
+  it('peak well after closing: helping but late', () => {
+    const p = pulseTiming(fakeResult(ring(270, 200, 5000)));
+    expect(p.effect).toBe('helping');
+    expect(p.verdict).toContain('30° after');
+    expect(p.verdict).toContain('arrives late');
   });
 
   it('small swing: neutral', () => {

@@ -9,5 +9,6 @@ import { checkCommand } from './check.js';
 import { pipeCommand } from './pipe.js';
 import { sweepCommand } from './sweep.js';
 import { tuneCommand } from './tune.js';
+import { compareCommand } from './compare.js';
 
-export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand];
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, compareCommand];

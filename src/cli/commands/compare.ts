@@ -1,0 +1,201 @@
+/**
+ * `tractwave compare A.yaml B.yaml`: two designs swept over the same speeds,
+ * their curves overlaid, the difference per speed, the band means side by
+ * side and where each one wins.
+ */
+import { performance } from 'node:perf_hooks';
+import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
+import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
+import { runSweeps } from '../../analysis/worker-pool.js';
+import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
+import { SET_OPTION, type Command } from '../command.js';
+import { fix, table } from '../format.js';
+import { writeFileAtomic } from '../write-file.js';
+import {
+  assumptionsOf,
+  BAND_OPTION,
+  chooseBand,
+  csvAndJsonChoice,
+  curveChart,
+  JOBS_OPTION,
+  loadForSweep,
+  parseJobs,
+  progress,
+  RANGE_OPTION,
+  signed,
+  sweepGrid,
+  sweepWarnings,
+  wrapLine,
+} from './sweep.js';
+
+const OPTIONS: OptionSpec[] = [
+  RANGE_OPTION,
+  BAND_OPTION,
+  { ...SET_OPTION, description: 'override a value in both cases, e.g. --set numerics.meshSize=5mm (repeatable)' },
+  JOBS_OPTION,
+  { name: 'json', type: 'boolean', description: 'print both curves and the differences as JSON (SI units)' },
+  { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed with both curves to FILE' },
+  { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+];
+
+function spanText(s: WinSpan): string {
+  const where = s.from === s.to ? `${fix(s.from, 0)} rpm` : `${fix(s.from, 0)}–${fix(s.to, 0)} rpm`;
+  if (s.winner === 'even') return `even at ${where}`;
+  return `${s.winner} wins ${where} (by up to ${fix(s.largestDifference * 100, 1)} points)`;
+}
+
+function slim(points: readonly SweepPoint[]) {
+  return points.map((p) => ({
+    rpm: p.rpm,
+    volumetricEfficiency: p.volumetricEfficiency,
+    torque: p.torque,
+    power: p.power,
+    converged: p.converged,
+    massImbalance: p.massImbalance,
+    effect: p.pulse.effect,
+  }));
+}
+
+export const compareCommand: Command = {
+  name: 'compare',
+  summary: 'two designs over the same speeds: curves, differences, band means, who wins where',
+  help: `usage: tractwave compare A.yaml B.yaml [--rpm FROM:TO:STEP] [--band LO:HI]
+                         [--set path=value ...] [--jobs N] [--json | --csv FILE [--force]]
+
+Sweeps both cases over the same speeds and shows their ηv curves on one chart
+(A as a line, B in dots), the difference B − A at each speed in percentage
+points, the band means side by side (area under the curve / band width: the
+figure of merit), and the speed spans where each design wins. A difference
+within 0.1 point counts as even.
+
+Speeds and band come from the options, else from A's 'sweep' and 'band' keys,
+else 3000:9000:250 and the whole range. --set applies to both cases.
+
+options
+${optionHelp(OPTIONS)}
+
+--json prints: a {name, file, points [...], band {...}, bestRpm}, b {...},
+band {from, to}, difference [{rpm, difference}] (B − A, fraction),
+wins [{winner, from, to, largestDifference}], stats {jobs, wallSeconds}.
+
+examples
+  tractwave compare cases/demo.yaml cases/airbox-single.yaml
+  tractwave compare a.yaml b.yaml --rpm 4000:9000:250 --band 5000:8000
+`,
+  async run(argv, io) {
+    const args = parseArgs(argv, OPTIONS);
+    if (args.help) {
+      io.stdout.write(this.help);
+      return 0;
+    }
+    const [fileA, fileB] = expectPositionals(args, ['A.yaml', 'B.yaml'], 'compare');
+    const csv = csvAndJsonChoice(args);
+    const jobs = parseJobs(args);
+    const a = await loadForSweep(fileA!, args, io);
+    const b = await loadForSweep(fileB!, args, io);
+    const grid = sweepGrid(args, a.case);
+    const band = chooseBand(args, a.case, grid);
+    const bar = progress(io, 'compare');
+    const t0 = performance.now();
+    let pa: SweepPoint[];
+    let pb: SweepPoint[];
+    try {
+      const both = await runSweeps(
+        [
+          { model: a.model, rpms: grid.values },
+          { model: b.model, rpms: grid.values },
+        ],
+        { jobs, onProgress: bar.tick, assumptions: assumptionsOf(a.case) },
+      );
+      pa = both[0]!;
+      pb = both[1]!;
+    } finally {
+      bar.done();
+    }
+    // B's torque and power with B's own assumptions
+    const ab = assumptionsOf(a.case);
+    const bb = assumptionsOf(b.case);
+    if (ab.airFuelRatio !== bb.airFuelRatio || ab.fuelHeatingValue !== bb.fuelHeatingValue || ab.brakeEfficiency !== bb.brakeEfficiency) {
+      const k = (bb.fuelHeatingValue * bb.brakeEfficiency * ab.airFuelRatio) / (ab.fuelHeatingValue * ab.brakeEfficiency * bb.airFuelRatio);
+      pb = pb.map((p) => ({ ...p, torque: p.torque * k, power: p.power * k }));
+    }
+    const wallSeconds = (performance.now() - t0) / 1000;
+    const sa = summariseSweep(pa, band);
+    const sb = summariseSweep(pb, band);
+    const rpms = grid.values;
+    const ea = pa.map((p) => p.volumetricEfficiency);
+    const eb = pb.map((p) => p.volumetricEfficiency);
+    const spans = winningSpans(rpms, ea, eb);
+    for (const w of sweepWarnings(pa, a.model.numerics.maxCycles, 'A')) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(pb, b.model.numerics.maxCycles, 'B')) io.stderr.write(`${w}\n`);
+    if (band.note) io.stderr.write(`note: ${band.note}\n`);
+    if (b.case.band && (b.case.band.from !== band.from || b.case.band.to !== band.to) && band.source !== 'option')
+      io.stderr.write(`note: B's own band ${b.case.band.from}–${b.case.band.to} rpm is not used; both are judged over A's band (set --band to choose)\n`);
+
+    if (args.flag('json')) {
+      const side = (file: string, name: string, points: SweepPoint[], s: typeof sa) => ({
+        name,
+        file,
+        points: slim(points),
+        band: s.band,
+        bestRpm: s.bestRpm,
+        bestVolumetricEfficiency: s.bestVolumetricEfficiency,
+      });
+      const json = {
+        a: side(fileA!, a.model.name, pa, sa),
+        b: side(fileB!, b.model.name, pb, sb),
+        band: { from: band.from, to: band.to },
+        difference: rpms.map((rpm, i) => ({ rpm, difference: (eb[i] ?? Number.NaN) - (ea[i] ?? Number.NaN) })),
+        wins: spans,
+        stats: { jobs, wallSeconds },
+      };
+      io.stdout.write(`${JSON.stringify(json)}\n`);
+      return 0;
+    }
+    if (csv !== undefined) {
+      const head = ['speed [rpm]', 'A volumetric efficiency [%]', 'B volumetric efficiency [%]', 'B - A [percentage points]', 'better'];
+      const rows = rpms.map((rpm, i) => {
+        const x = ea[i] ?? Number.NaN;
+        const y = eb[i] ?? Number.NaN;
+        return [fix(rpm, 0), (x * 100).toFixed(4), (y * 100).toFixed(4), ((y - x) * 100).toFixed(4), winnerAt(x, y)].join(',');
+      });
+      await writeFileAtomic(csv, [head.join(','), ...rows].join('\n') + '\n', { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+    }
+
+    const out: string[] = [
+      `compare over ${fix(rpms[0]!, 0)}–${fix(rpms[rpms.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm (${rpms.length * 2} points, ${fix(wallSeconds, 1)} s)`,
+      `  A (line ─): ${a.model.name} [${fileA}]`,
+      `  B (dots ·): ${b.model.name} [${fileB}]`,
+      '',
+      'volumetric efficiency ηv [%] against speed',
+    ];
+    out.push(...curveChart(rpms, [{ values: ea.map((v) => v * 100) }, { values: eb.map((v) => v * 100) }], { band }));
+    out.push('');
+    io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n');
+    const rows = rpms.map((rpm, i) => {
+      const x = ea[i] ?? Number.NaN;
+      const y = eb[i] ?? Number.NaN;
+      const w = winnerAt(x, y);
+      return [fix(rpm, 0), fix(x * 100, 1), fix(y * 100, 1), signed((y - x) * 100, 1), w === 'even' ? '=' : w];
+    });
+    io.stdout.write(table(['rpm', 'A ηv %', 'B ηv %', 'B−A pts', 'better'], rows));
+    const ma = sa.band.meanVolumetricEfficiency;
+    const mb = sb.band.meanVolumetricEfficiency;
+    const lead = winnerAt(ma, mb);
+    const verdict =
+      lead === 'even'
+        ? 'the two are even over the band'
+        : `${lead} is better over the band by ${fix(Math.abs(mb - ma) * 100, 2)} points`;
+    const summary = [
+      '',
+      `band ${fix(band.from, 0)}–${fix(band.to, 0)} rpm, mean ηv (area under the curve / band width): A ${fix(ma * 100, 2)} %, B ${fix(mb * 100, 2)} % — ${verdict}`,
+      `best speed: A ${fix(sa.bestVolumetricEfficiency * 100, 1)} % at ${fix(sa.bestRpm, 0)} rpm, B ${fix(sb.bestVolumetricEfficiency * 100, 1)} % at ${fix(sb.bestRpm, 0)} rpm`,
+      `where each wins: ${spans.map(spanText).join('; ')}`,
+      'results are estimates from a simplified model: verify them on an engine.',
+    ];
+    io.stdout.write(summary.map((l) => wrapLine(l)).join('\n') + '\n');
+    if (csv !== undefined) io.stdout.write(`wrote ${rpms.length} rows (one per speed) to ${csv}\n`);
+    return 0;
+  },
+};
+
