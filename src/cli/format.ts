@@ -2,7 +2,9 @@
 
 /** fixed decimals, or '—' for non-finite */
 export function fix(v: number, decimals: number): string {
-  return Number.isFinite(v) ? v.toFixed(decimals) : '—';
+  if (!Number.isFinite(v)) return '—';
+  const s = v.toFixed(decimals);
+  return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s; // no "-0.00"
 }
 
 export const pct = (fraction: number, d = 1) => `${fix(fraction * 100, d)} %`;

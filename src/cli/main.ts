@@ -20,19 +20,20 @@ import type { Command } from './command.js';
 import type { CliIo } from './io.js';
 import { defaultCasePath, packageVersion } from './package-root.js';
 import { SAFETY_CAUTION } from './safety.js';
+import { wrap } from './format.js';
 
 export { type CliIo, memoryIo } from './io.js';
 
 function topHelp(): string {
   const w = Math.max(...commands.map((c) => c.name.length)) + 2;
-  return `tractwave: step-by-step simulation of a single-cylinder engine's intake tract
-(1-D unsteady runner by the method of characteristics, coupled to cylinder filling)
+  return `tractwave: crank-degree-by-degree simulation of a single-cylinder intake
+tract (1-D unsteady runner, method of characteristics, coupled to the cylinder)
 
 usage
-  tractwave [CASE]               interactive view on a terminal (default: the bundled demo)
+  tractwave [CASE]               terminal view (default case: the bundled demo)
   tractwave <command> [options]  one of:
 
-${commands.map((c) => `  ${c.name.padEnd(w)}${c.summary}`).join('\n')}
+${commands.map((c) => `  ${c.name.padEnd(w)}${wrap(c.summary, 76 - w, '').trimEnd().split('\n').join(`\n${' '.repeat(w + 2)}`)}`).join('\n')}
 
   tractwave <command> --help     the options of one command
   tractwave --version

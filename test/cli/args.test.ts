@@ -44,3 +44,26 @@ describe('parseArgs', () => {
     }
   });
 });
+
+describe('reportError: exit codes (DESIGN §3)', async () => {
+  const { reportError } = await import('../../src/cli/main.js');
+  const { memoryIo } = await import('../../src/cli/io.js');
+  const { SimulationError } = await import('../../src/core/engine.js');
+  it.each([
+    [new CaseError('runner.length', 'must be positive, got -1 m'), 2, 'error: runner.length: must be positive, got -1 m\n'],
+    [new SimulationError('diverged', 'state went negative at θ 231°'), 1, 'error: the simulation diverged: state went negative at θ 231°\n'],
+  ])('%s', (e, code, text) => {
+    const io = memoryIo();
+    expect(reportError(e, io)).toBe(code);
+    expect(io.err()).toBe(text);
+  });
+  it('an unexpected error is an internal failure, exit 1, without a stack unless asked', () => {
+    const io = memoryIo();
+    const before = process.env.TRACTWAVE_DEBUG;
+    delete process.env.TRACTWAVE_DEBUG;
+    expect(reportError(new TypeError('x is undefined'), io)).toBe(1);
+    if (before !== undefined) process.env.TRACTWAVE_DEBUG = before;
+    expect(io.err()).toMatch(/^internal error: x is undefined\n/);
+    expect(io.err()).not.toMatch(/\n\s+at /);
+  });
+});
