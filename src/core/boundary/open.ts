@@ -13,7 +13,8 @@
  * X ∈ [Λ, min(X_res, Λ/(1 − G1))] of
  *   R(X) = p_e + K·½ρ_e·w² − p_res·(a_e/a_res)^PEXP.
  */
-import { CP, G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
+import { G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
+import { inflowSoundSpeed, writeInflow, writeOutflow } from './end-state.js';
 import { bracketedRoot, type Residual } from './solve.js';
 import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
 
@@ -35,9 +36,8 @@ export class OpenEnd implements Boundary, Residual {
 
   residual(X: number): number {
     const res = this.reservoir;
-    const r = this.lam / X - 1;
-    const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
-    const w = (ae * r) / G1;
+    const ae = inflowSoundSpeed(this.aRes, this.lam, X);
+    const w = (ae * (this.lam / X - 1)) / G1;
     const pe = P_REF * powP(X);
     const rho = pe / (R_AIR * ((ae * ae) / GR));
     return pe + this.entryLoss * 0.5 * rho * w * w - res.pressure * powP(ae / this.aRes);
@@ -55,15 +55,7 @@ export class OpenEnd implements Boundary, Residual {
         X = (2 * lam) / (GAMMA + 1);
         out.choked = true;
       }
-      const ae = ap * X;
-      const w = (ap * (lam - X)) / G1;
-      const Te = (ae * ae) / GR;
-      const pe = P_REF * powP(X);
-      out.pressure = pe;
-      out.velocity = w;
-      out.entropy = ap;
-      out.massFlow = (pe / (R_AIR * Te)) * w * inc.area;
-      out.enthalpyFlow = out.massFlow * (CP * Te + 0.5 * w * w);
+      writeOutflow(out, ap, lam, X, inc.area);
       return;
     }
     this.lam = lam;
@@ -79,15 +71,6 @@ export class OpenEnd implements Boundary, Residual {
         out.choked = true;
       } else X = bracketedRoot(this, lam, hi, this.residual(lam), fhi, TOL);
     } else X = bracketedRoot(this, lam, hi, this.residual(lam), this.residual(hi), TOL);
-    const r = lam / X - 1;
-    const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
-    const w = (ae * r) / G1;
-    const Te = (ae * ae) / GR;
-    const pe = P_REF * powP(X);
-    out.pressure = pe;
-    out.velocity = w;
-    out.entropy = ae / X;
-    out.massFlow = (pe / (R_AIR * Te)) * w * inc.area;
-    out.enthalpyFlow = out.massFlow * CP * res.temperature;
+    writeInflow(out, this.aRes, res.temperature, lam, X, inc.area);
   }
 }

@@ -29,6 +29,7 @@ import { CP, G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import { orificeMassFlow } from '../flow.js';
 import { bracketedRoot, type Residual } from './solve.js';
 import { solveClosed } from './closed.js';
+import { inflowSoundSpeed, writeInflow, writeOutflow } from './end-state.js';
 import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
 
 const GR = GAMMA * R_AIR;
@@ -58,9 +59,8 @@ export class RestrictedEnd implements Boundary, Residual {
       const p0 = pe * Math.pow(T0 / Te, GAMMA / (GAMMA - 1));
       return mPipe - orificeMassFlow(this.area, p0, T0, res.pressure);
     }
-    const r = this.lam / X - 1;
-    const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
-    const w = (ae * r) / G1;
+    const ae = inflowSoundSpeed(this.aRes, this.lam, X);
+    const w = (ae * (this.lam / X - 1)) / G1;
     const Te = (ae * ae) / GR;
     const mPipe = (pe / (R_AIR * Te)) * -w * this.pipeArea;
     return mPipe - orificeMassFlow(this.area, res.pressure, res.temperature, pe);
@@ -89,15 +89,7 @@ export class RestrictedEnd implements Boundary, Residual {
       } else {
         X = bracketedRoot(this, lo, lam, flo, this.residual(lam), TOL);
       }
-      const ae = this.ap * X;
-      const w = (this.ap * (lam - X)) / G1;
-      const Te = (ae * ae) / GR;
-      const pe = P_REF * powP(X);
-      out.pressure = pe;
-      out.velocity = w;
-      out.entropy = this.ap;
-      out.massFlow = (pe / (R_AIR * Te)) * w * inc.area;
-      out.enthalpyFlow = out.massFlow * (CP * Te + 0.5 * w * w);
+      writeOutflow(out, this.ap, lam, X, inc.area);
       return;
     }
     this.mode = -1;
@@ -117,15 +109,6 @@ export class RestrictedEnd implements Boundary, Residual {
     } else {
       X = bracketedRoot(this, lam, hi, this.residual(lam), this.residual(hi), TOL);
     }
-    const r = lam / X - 1;
-    const ae = this.aRes / Math.sqrt(1 + (r * r) / G1);
-    const w = (ae * r) / G1;
-    const Te = (ae * ae) / GR;
-    const pe = P_REF * powP(X);
-    out.pressure = pe;
-    out.velocity = w;
-    out.entropy = ae / X;
-    out.massFlow = (pe / (R_AIR * Te)) * w * inc.area;
-    out.enthalpyFlow = out.massFlow * CP * res.temperature;
+    writeInflow(out, this.aRes, res.temperature, lam, X, inc.area);
   }
 }
