@@ -1,0 +1,337 @@
+/**
+ * The top component: owns the state (one reducer, keys → actions) and the
+ * effects — running points and sweeps through the engine service in the
+ * background, the play timer, saving — and passes plain numbers to the
+ * display-only views.
+ */
+import React, { useEffect, useReducer, useRef } from 'react';
+import { Box, useApp, useInput, useStdin } from 'ink';
+import type { WarmStart } from '../core/engine.js';
+import type { EngineModel } from '../core/model.js';
+import { windowStart } from './chart.js';
+import type { CaseSession } from './case-session.js';
+import type { EngineService } from './engine-service.js';
+import { RunError } from './engine-service.js';
+import { headerLine, keyHints, tooSmall } from './frame-screen.js';
+import { reduceApp, type KeyAction } from './keys.js';
+import { Lines } from './lines.js';
+import { colorWanted } from './palette.js';
+import { FileExistsError } from './save.js';
+import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type UiState } from './state.js';
+import { teachingLine } from './teach.js';
+import { fit, joinFit, mg, wrapWords } from './text.js';
+import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
+import { CasePanel, HelpScreen, RunnerView, SweepView, TooSmall, ValveView, Waiting } from './views.js';
+
+export interface AppProps {
+  session: CaseSession;
+  engine: EngineService;
+  /** a fixed size (tests); default: the terminal's, following resizes */
+  size?: TerminalSize | undefined;
+  /** colour on/off; default: on unless NO_COLOR is set */
+  color?: boolean | undefined;
+  /** the teaching line at start (default on) */
+  teach?: boolean | undefined;
+  /** wait this long after the last change before running [ms] (default 120) */
+  debounceMs?: number | undefined;
+}
+
+/** Messages of errors for the status line: the case loader's CaseError names the field. */
+function messageOf(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+function isBadInput(e: unknown): boolean {
+  if (e instanceof RunError) return e.badInput;
+  return e instanceof Error && e.name === 'CaseError';
+}
+
+export function App(props: AppProps): React.JSX.Element {
+  const { session, engine } = props;
+  const [state, dispatch] = useReducer(
+    (s: UiState, a: Action | KeyAction) => reduceApp(s, a),
+    undefined,
+    () =>
+      initialState({
+        values: session.values,
+        sweepPlan: session.sweepPlan,
+        suggestedSavePath: '',
+        ...(props.teach !== undefined ? { teach: props.teach } : {}),
+      }),
+  );
+  const { exit } = useApp();
+  const { isRawModeSupported } = useStdin();
+  const terminal = useTerminalSize();
+  const size = props.size ?? terminal;
+  const color = props.color ?? colorWanted();
+  const warm = useRef<WarmStart | undefined>(undefined);
+
+  useInput(
+    (input, key) => {
+      dispatch({ type: 'key', input, key });
+    },
+    { isActive: isRawModeSupported === true },
+  );
+
+  // the first name offered for saving
+  useEffect(() => {
+    void session.suggestSavePath().then(
+      (path) => dispatch({ type: 'suggestSave', path }),
+      () => undefined,
+    );
+  }, [session]);
+
+  // run the point whenever the request changes (after a short pause, so a
+  // burst of key presses runs once)
+  const request = state.request;
+  useEffect(() => {
+    let live = true;
+    const timer = setTimeout(() => {
+      let model: EngineModel;
+      try {
+        model = session.build(request.edits);
+      } catch (e) {
+        dispatch({ type: 'pointFailed', id: request.id, message: messageOf(e), badInput: isBadInput(e) });
+        return;
+      }
+      engine.runPoint(model, warm.current).then(
+        (out) => {
+          warm.current = out.warmStart;
+          if (!live) return;
+          dispatch({
+            type: 'pointDone',
+            id: request.id,
+            point: {
+              result: out.result,
+              pulse: out.pulse,
+              label: request.label,
+              ambient: model.ambient.pressure,
+              upstream: model.inlet.kind,
+            },
+          });
+        },
+        (e: unknown) => {
+          if (live) dispatch({ type: 'pointFailed', id: request.id, message: messageOf(e), badInput: isBadInput(e) });
+        },
+      );
+    }, request.id === 1 ? 0 : (props.debounceMs ?? 120));
+    return () => {
+      live = false;
+      clearTimeout(timer);
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [request.id]);
+
+  // the sweep, in the background; a new request or leaving stops the old one
+  const sweepId = state.sweepRequest;
+  useEffect(() => {
+    if (state.sweepStatus !== 'running') return;
+    let model: EngineModel;
+    try {
+      model = session.build(state.sweepEdits ?? state.edits);
+    } catch (e) {
+      dispatch({ type: 'sweepFailed', id: sweepId, message: messageOf(e) });
+      return;
+    }
+    const handle = engine.runSweep(model, state.sweepPlan.rpms, {
+      onPoint: (index, eta, converged) => dispatch({ type: 'sweepPoint', id: sweepId, index, eta, converged }),
+      onDone: () => dispatch({ type: 'sweepDone', id: sweepId }),
+      onError: (message) => dispatch({ type: 'sweepFailed', id: sweepId, message }),
+    });
+    return () => handle.cancel();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [sweepId]);
+
+  // play
+  useEffect(() => {
+    if (!state.playing) return;
+    let last = Date.now();
+    const t = setInterval(() => {
+      const now = Date.now();
+      dispatch({ type: 'tick', ms: now - last });
+      last = now;
+    }, 40);
+    return () => clearInterval(t);
+  }, [state.playing]);
+
+  // saving
+  const save = state.save;
+  useEffect(() => {
+    if (!save) return;
+    let live = true;
+    if (save.stage === 'checking') {
+      void session.exists(save.path).then((exists) => {
+        if (live) dispatch({ type: 'saveChecked', exists });
+      });
+    } else if (save.stage === 'saving') {
+      session.save(state.edits, save.path, save.overwrite).then(
+        async (path) => {
+          const next = await session.suggestSavePath().catch(() => '');
+          if (live) dispatch({ type: 'saved', path, next });
+        },
+        (e: unknown) => {
+          if (!live) return;
+          if (e instanceof FileExistsError) dispatch({ type: 'saveChecked', exists: true });
+          else dispatch({ type: 'saveFailed', message: `Not saved: ${messageOf(e)}` });
+        },
+      );
+    }
+    return () => {
+      live = false;
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [save?.stage]);
+
+  // quit
+  useEffect(() => {
+    if (state.quit) exit();
+  }, [state.quit, exit]);
+
+  if (tooSmall(size.columns, size.rows)) return <TooSmall columns={size.columns} rows={size.rows} color={color} />;
+  return <Screen state={state} session={session} size={size} color={color} />;
+}
+
+/** Row budget: one line less than the terminal, so the frame never scrolls it. */
+export function rowBudget(rows: number, teach: boolean, help: boolean): { body: number; teach: number } {
+  const total = rows - 1;
+  const teachRows = teach && !help ? 2 : 0;
+  return { body: Math.max(1, total - 3 - teachRows), teach: teachRows };
+}
+
+function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; color: boolean }): React.JSX.Element {
+  const { state: s, session, color } = p;
+  const w = p.size.columns;
+  const rpm = s.values['rpm'] ?? s.point?.result.rpm ?? 0;
+  const budget = rowBudget(p.size.rows, s.teach, s.help);
+  const header = headerLine({ width: w, name: session.name, rpm, crank: s.crank, view: s.view, running: s.running || s.sweepStatus === 'running' });
+  const point = s.point;
+  const span = zoomSpan(s);
+  const from = windowStart(s.crank, span);
+
+  let body: React.JSX.Element;
+  if (s.help) body = <HelpScreen width={w} rows={budget.body + budget.teach} color={color} />;
+  else if (s.view === 'sweep')
+    body = (
+      <SweepView
+        width={w}
+        rows={budget.body}
+        now={s.sweep}
+        before={s.sweepBaseline}
+        band={s.sweepPlan.band}
+        plan={{
+          from: s.sweepPlan.rpms[0] ?? 0,
+          to: s.sweepPlan.rpms[s.sweepPlan.rpms.length - 1] ?? 0,
+          count: s.sweepPlan.rpms.length,
+        }}
+        currentRpm={rpm}
+        status={s.sweepStatus}
+        stale={sweepIsStale(s)}
+        color={color}
+      />
+    );
+  else if (s.view === 'case')
+    body = (
+      <CasePanel
+        width={w}
+        rows={budget.body}
+        name={session.name}
+        file={session.file}
+        fields={s.fields}
+        values={s.values}
+        baseValues={s.baseline?.values}
+        selected={s.selected}
+        editing={s.editing}
+        running={s.running}
+        result={point?.result}
+        baseline={s.baseline?.result}
+        baselineLabel={s.baseline?.label}
+        save={s.save}
+        color={color}
+      />
+    );
+  else if (!point)
+    body = <Waiting width={w} rows={budget.body} text={s.runError ? `The point did not run: ${s.runError}` : 'Running the first point…'} color={color} />;
+  else if (s.view === 'runner')
+    body = (
+      <RunnerView
+        width={w}
+        rows={budget.body}
+        crank={s.crank}
+        from={from}
+        span={span}
+        map={{ x: point.result.runnerMap.x, pressure: point.result.runnerMap.pressure, ambient: point.ambient }}
+        events={point.result.events}
+        runnerLength={point.result.runnerLength}
+        upstream={point.upstream}
+        roundTripDeg={point.pulse?.roundTripDeg}
+        rpm={point.result.rpm}
+        color={color}
+      />
+    );
+  else
+    body = (
+      <ValveView
+        width={w}
+        rows={budget.body}
+        crank={s.crank}
+        from={from}
+        span={span}
+        now={point.result.trace}
+        before={s.baseline?.result.trace}
+        reference={point.ambient}
+        events={point.result.events}
+        verdict={point.pulse?.verdict}
+        openingNote={point.pulse?.openingNote}
+        color={color}
+      />
+    );
+
+  const teachLines =
+    budget.teach > 0
+      ? point
+        ? wrapWords(
+            teachingLine({
+              crank: s.crank,
+              lift: point.result.trace.lift[s.crank] ?? 0,
+              exhaustLift: point.result.trace.exhaustLift[s.crank] ?? 0,
+              valvePressure: point.result.trace.valvePressure[s.crank] ?? point.ambient,
+              valveFlow: point.result.trace.valveFlow[s.crank] ?? 0,
+              reference: point.ambient,
+              events: point.result.events,
+            }),
+            w,
+            budget.teach,
+          )
+        : []
+      : [];
+  while (teachLines.length < budget.teach) teachLines.push(' '.repeat(w));
+
+  return (
+    <Box flexDirection="column" width={w}>
+      <Lines lines={[header]} color={color} bold />
+      {body}
+      {teachLines.length > 0 ? <Lines lines={teachLines} color={color} tone="green" /> : null}
+      <Lines lines={[statusLine(s, w)]} color={color} tone={s.message?.tone === 'error' ? 'red' : undefined} />
+      <Lines lines={[keyHints(s.view, w, s.playing)]} color={color} dim />
+    </Box>
+  );
+}
+
+export function statusLine(s: UiState, w: number): string {
+  if (s.message) return fit(s.message.text, w);
+  const r = s.point?.result;
+  const b = s.baseline?.result;
+  const parts: string[] = [];
+  if (s.running) parts.push(`Running ${s.values['rpm'] ?? ''} rpm… (keys keep working)`);
+  if (r) {
+    parts.push(`ηv ${r.volumetricEfficiency.toFixed(3)}`);
+    if (b) {
+      const d = (r.volumetricEfficiency / b.volumetricEfficiency - 1) * 100;
+      parts.push(`baseline ${b.volumetricEfficiency.toFixed(3)} (${d >= 0 ? '+' : '−'}${Math.abs(d).toFixed(1)} %)`);
+    }
+    parts.push(`trapped ${mg(r.trappedMass)} mg`);
+    parts.push(r.converged ? `${r.cycles} cycles` : `NOT converged in ${r.cycles} cycles`);
+  }
+  if (s.playing) parts.push(`playing ${playRate(s)}°/s`);
+  return joinFit(parts, w, ' · ');
+}

@@ -1,0 +1,111 @@
+/**
+ * The case behind the terminal view: the file as loaded, the model with the
+ * panel's edits applied (through the case loader's `--set` overrides, so
+ * every unit conversion stays in src/case), the values the panel shows, the
+ * sweep plan, and saving. An interface, so tests can give a fake one.
+ */
+import { basename } from 'node:path';
+import type { EngineModel } from '../core/model.js';
+import { buildCase, loadCase, UNITS, type LoadedCase } from '../case/index.js';
+import { FIELDS } from './fields.js';
+import { fileExists, saveEditedCase, suggestSavePath } from './save.js';
+import type { Edit } from './state.js';
+
+export interface SweepPlan {
+  rpms: number[];
+  band: { from: number; to: number };
+}
+
+export interface CaseSession {
+  /** the case file (absolute) */
+  file: string;
+  name: string;
+  /** field values in display units (see fields.ts), for the fields this case has */
+  values: Record<string, number>;
+  sweepPlan: SweepPlan;
+  /** the model with the edits applied; throws the case loader's CaseError on a bad value */
+  build: (edits: readonly Edit[]) => EngineModel;
+  suggestSavePath: () => Promise<string>;
+  exists: (path: string) => Promise<boolean>;
+  /** save to `path` (absolute or relative to the cwd); returns the absolute path written */
+  save: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
+}
+
+/** A value in model units → the display unit `unitWord` ('' = as is), by the case loader's unit table. */
+export function toDisplay(value: number, unitWord: string): number {
+  if (!unitWord) return value;
+  const u = UNITS[unitWord];
+  if (!u) return value;
+  const zero = u.toModel(0);
+  const one = u.toModel(1);
+  return (value - zero) / (one - zero);
+}
+
+/** The default sweep when the case gives none: half to 1.4 × the case speed, 250 rpm steps (our default, not a rule). */
+export function defaultSweepPlan(rpm: number): SweepPlan {
+  const step = 250;
+  const from = Math.max(1000, Math.round((rpm * 0.5) / 500) * 500);
+  const to = Math.max(from + 4 * step, Math.round((rpm * 1.4) / 500) * 500);
+  const rpms: number[] = [];
+  for (let v = from; v <= to + 1e-9; v += step) rpms.push(v);
+  return { rpms, band: { from: Math.round((rpm * 0.75) / 250) * 250, to: Math.min(to, Math.round((rpm * 1.15) / 250) * 250) } };
+}
+
+export function sweepPlanOf(loaded: LoadedCase): SweepPlan {
+  const c = loaded.case;
+  const plan = defaultSweepPlan(c.rpm);
+  if (c.sweep) {
+    const rpms: number[] = [];
+    for (let v = c.sweep.from; v <= c.sweep.to + 1e-9 && rpms.length < 400; v += c.sweep.step) rpms.push(Math.round(v * 1000) / 1000);
+    plan.rpms = rpms;
+  }
+  const lo = plan.rpms[0] ?? 0;
+  const hi = plan.rpms[plan.rpms.length - 1] ?? 0;
+  if (c.band) plan.band = { from: c.band.from, to: c.band.to };
+  plan.band = { from: Math.max(lo, plan.band.from), to: Math.min(hi, plan.band.to) };
+  return plan;
+}
+
+/** The panel's values of a loaded case, in display units. */
+export function fieldValues(loaded: LoadedCase): Record<string, number> {
+  const c = loaded.case;
+  const raw = loaded.data as { runner?: Record<string, unknown> };
+  const plainRunner = raw.runner !== undefined && 'length' in raw.runner && !('sections' in raw.runner);
+  const si: Record<string, number | undefined> = {
+    rpm: c.rpm,
+    'runner.length': plainRunner ? c.runner.sections[0]?.length : undefined,
+    'runner.diameter': plainRunner ? c.runner.sections[0]?.diameterStart : undefined,
+    'inlet.volume': c.inlet.kind === 'plenum' ? c.inlet.volume : undefined,
+    'intake.opens': c.intake.opens,
+    'intake.closes': c.intake.closes,
+    'exhaust.opens': c.exhaust.opens,
+    'exhaust.closes': c.exhaust.closes,
+    'ambient.pressure': c.ambient.pressure,
+    'ambient.temperature': c.ambient.temperature,
+  };
+  const out: Record<string, number> = {};
+  for (const f of FIELDS) {
+    const v = si[f.path];
+    if (v !== undefined) out[f.path] = toDisplay(v, f.unitWord);
+  }
+  return out;
+}
+
+function setsOf(edits: readonly Edit[]): string[] {
+  return edits.map((e) => `${e.path}=${e.value}`);
+}
+
+export async function openCase(file: string): Promise<CaseSession> {
+  const loaded = await loadCase(file);
+  const raw = structuredClone(loaded.data);
+  return {
+    file,
+    name: loaded.model.name || basename(file),
+    values: fieldValues(loaded),
+    sweepPlan: sweepPlanOf(loaded),
+    build: (edits) => buildCase(structuredClone(raw), file, { set: setsOf(edits) }).model,
+    suggestSavePath: () => suggestSavePath(file),
+    exists: fileExists,
+    save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),
+  };
+}

@@ -1,0 +1,308 @@
+/**
+ * Running the core for the terminal view without freezing the keys.
+ *
+ * `threadEngine()` runs single points on a worker thread of our own
+ * (worker.ts) and sweeps on the analysis module's sweep workers
+ * (analysis/worker.ts), in the same fixed warm-start chunks as
+ * `tractwave sweep`, so the curve shown here has the command's numbers.
+ * A running sweep is stopped by terminating its threads.
+ *
+ * `inlineEngine()` runs everything on the calling thread, yielding to the
+ * event loop between points; tests use it, and the thread engine falls back
+ * to it when a worker cannot be started.
+ *
+ * Starting a worker in the three ways the code is run (see also
+ * analysis/worker-pool.ts):
+ *   - .ts source (vitest, tsx): an eval bootstrap registers tsx's ESM loader
+ *     and imports the .ts module;
+ *   - compiled (dist/ui/engine-service.js): the .js file beside it;
+ *   - single-file bundle: the bundle itself, with the worker's flag in
+ *     workerData (the bundle must load the worker module on such a thread).
+ */
+import { availableParallelism } from 'node:os';
+import { createRequire } from 'node:module';
+import { pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import type { WarmStart } from '../core/engine.js';
+import type { EngineModel, PointResult } from '../core/model.js';
+import { chunkSpeeds, runChunk } from '../analysis/sweep.js';
+import { SWEEP_WORKER_FLAG, type ChunkJob, type ChunkReply } from '../analysis/worker.js';
+import type { PulseSummary } from './state.js';
+import { UI_WORKER_FLAG, runPointJob, type PointJob, type PointReply } from './worker.js';
+
+export interface PointOutcome {
+  result: PointResult;
+  warmStart: WarmStart;
+  pulse?: PulseSummary | undefined;
+}
+
+/** A failed run: `badInput` when the model's values are at fault (SimulationError 'invalid'). */
+export class RunError extends Error {
+  constructor(
+    message: string,
+    readonly badInput: boolean,
+  ) {
+    super(message);
+    this.name = 'RunError';
+  }
+}
+
+export interface SweepCallbacks {
+  /** a finished point: its index in `rpms`, ηv, and whether it converged */
+  onPoint: (index: number, volumetricEfficiency: number, converged: boolean) => void;
+  onDone: () => void;
+  onError: (message: string) => void;
+}
+
+export interface SweepHandle {
+  cancel: () => void;
+}
+
+export interface EngineService {
+  runPoint: (model: EngineModel, warmStart?: WarmStart) => Promise<PointOutcome>;
+  runSweep: (model: EngineModel, rpms: readonly number[], cb: SweepCallbacks) => SweepHandle;
+  close: () => Promise<void>;
+}
+
+function replyToOutcome(reply: PointReply): PointOutcome {
+  if (!('id' in reply)) throw new Error('unexpected worker reply');
+  if (reply.ok) return { result: reply.result, warmStart: reply.warmStart, pulse: reply.pulse };
+  const bad = reply.error.name === 'SimulationError' && reply.error.code === 'invalid';
+  throw new RunError(
+    reply.error.name === 'SimulationError' ? `The simulation ${reply.error.code === 'diverged' ? 'diverged' : 'could not start'}: ${reply.error.message}` : reply.error.message,
+    bad,
+  );
+}
+
+const nextTurn = (): Promise<void> => new Promise((r) => setImmediate(r));
+
+/** Everything on this thread, one point per event-loop turn. */
+export function inlineEngine(): EngineService {
+  let id = 0;
+  return {
+    async runPoint(model, warmStart) {
+      await nextTurn();
+      const job: PointJob = { id: ++id, model, ...(warmStart ? { warmStart } : {}) };
+      return replyToOutcome(runPointJob(job));
+    },
+    runSweep(model, rpms, cb) {
+      let cancelled = false;
+      const order = rpms.map((rpm, index) => ({ rpm, index }));
+      void (async () => {
+        try {
+          let start = 0;
+          for (const chunk of chunkSpeeds(rpms)) {
+            await nextTurn();
+            if (cancelled) return;
+            const points = runChunk(model, chunk);
+            points.forEach((p, k) => {
+              const at = order[start + k];
+              if (!cancelled && at) cb.onPoint(at.index, p.volumetricEfficiency, p.converged);
+            });
+            start += chunk.length;
+          }
+          if (!cancelled) cb.onDone();
+        } catch (e) {
+          if (!cancelled) cb.onError(e instanceof Error ? e.message : String(e));
+        }
+      })();
+      return {
+        cancel() {
+          cancelled = true;
+        },
+      };
+    },
+    async close() {},
+  };
+}
+
+type Layout = 'source' | 'compiled' | 'bundle';
+
+export function workerLayout(moduleUrl: string = import.meta.url): Layout {
+  if (/\.[cm]?tsx?$/.test(moduleUrl)) return 'source';
+  if (/\/ui\/engine-service\.js$/.test(moduleUrl)) return 'compiled';
+  return 'bundle';
+}
+
+/** Start a worker for a module given as a path relative to this file, without suffix. */
+function startWorker(relative: string, flag: string): Worker {
+  const here = import.meta.url;
+  const workerData = { [flag]: true };
+  switch (workerLayout(here)) {
+    case 'source': {
+      const tsxApi = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
+      const target = new URL(`${relative}.ts`, here).href;
+      const code =
+        `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); })` +
+        `.catch((e) => { console.error(e); process.exit(1); });`;
+      return quiet(new Worker(code, { eval: true, workerData, stderr: true }));
+    }
+    case 'compiled':
+      return quiet(new Worker(new URL(`${relative}.js`, here), { workerData, stderr: true }));
+    case 'bundle':
+      return quiet(new Worker(new URL(here), { workerData, stderr: true }));
+  }
+}
+
+/** A worker's stderr must not write over the screen: read and drop it. */
+function quiet(w: Worker): Worker {
+  w.stderr.resume();
+  return w;
+}
+
+export interface ThreadEngineOptions {
+  /** sweep threads (default: cores − 1, at least 1, at most 4) */
+  sweepJobs?: number;
+}
+
+/** Points on a worker of our own, sweeps on the analysis module's workers. */
+export function threadEngine(options: ThreadEngineOptions = {}): EngineService {
+  const inline = inlineEngine();
+  let pointWorker: Worker | undefined;
+  let ready: Promise<boolean> | undefined;
+  let broken = false;
+  let nextId = 0;
+  const pending = new Map<number, { resolve: (o: PointOutcome) => void; reject: (e: Error) => void }>();
+  const sweepThreads = new Set<Worker>();
+
+  const failAll = (e: Error): void => {
+    for (const p of pending.values()) p.reject(e);
+    pending.clear();
+  };
+
+  const ensureWorker = (): Promise<boolean> => {
+    if (broken) return Promise.resolve(false);
+    if (ready) return ready;
+    ready = new Promise<boolean>((resolve) => {
+      let w: Worker;
+      try {
+        w = startWorker('./worker', UI_WORKER_FLAG);
+      } catch {
+        broken = true;
+        resolve(false);
+        return;
+      }
+      pointWorker = w;
+      let up = false;
+      w.on('message', (msg: PointReply) => {
+        if ('ready' in msg) {
+          up = true;
+          resolve(true);
+          return;
+        }
+        const p = pending.get(msg.id);
+        if (!p) return;
+        pending.delete(msg.id);
+        try {
+          p.resolve(replyToOutcome(msg));
+        } catch (e) {
+          p.reject(e instanceof Error ? e : new Error(String(e)));
+        }
+      });
+      const down = (why: string): void => {
+        pointWorker = undefined;
+        ready = undefined;
+        if (!up) {
+          // it never served: run points on this thread from now on
+          broken = true;
+          resolve(false);
+        }
+        failAll(new RunError(`the simulation thread stopped (${why})`, false));
+      };
+      w.on('error', (e) => down(e instanceof Error ? e.message : String(e)));
+      w.on('exit', (code) => down(`exit code ${code}`));
+    });
+    return ready;
+  };
+
+  return {
+    async runPoint(model, warmStart) {
+      if (!(await ensureWorker()) || !pointWorker) return inline.runPoint(model, warmStart);
+      const w = pointWorker;
+      const id = ++nextId;
+      return new Promise<PointOutcome>((resolve, reject) => {
+        pending.set(id, { resolve, reject });
+        const job: PointJob = { id, model, ...(warmStart ? { warmStart } : {}) };
+        w.postMessage(job);
+      });
+    },
+
+    runSweep(model, rpms, cb) {
+      const chunks = chunkSpeeds(rpms);
+      const jobs = Math.max(1, Math.min(options.sweepJobs ?? Math.min(4, availableParallelism() - 1), chunks.length));
+      const threads: Worker[] = [];
+      let cancelled = false;
+      let next = 0;
+      let finished = 0;
+      let fallback: SweepHandle | undefined;
+      const offsets: number[] = [];
+      chunks.reduce((at, c) => (offsets.push(at), at + c.length), 0);
+      const stop = (): void => {
+        cancelled = true;
+        for (const t of threads) {
+          sweepThreads.delete(t);
+          void t.terminate();
+        }
+      };
+      const fail = (message: string): void => {
+        if (cancelled) return;
+        stop();
+        cb.onError(message);
+      };
+      const feed = (w: Worker): void => {
+        if (cancelled || next >= chunks.length) return;
+        const id = next++;
+        const job: ChunkJob = { id, model, rpms: chunks[id] ?? [], assumptions: {} };
+        w.postMessage(job);
+      };
+      for (let k = 0; k < jobs; k++) {
+        let w: Worker;
+        try {
+          w = startWorker('../analysis/worker', SWEEP_WORKER_FLAG);
+        } catch {
+          stop();
+          cancelled = false;
+          fallback = inline.runSweep(model, rpms, cb);
+          break;
+        }
+        threads.push(w);
+        sweepThreads.add(w);
+        w.on('message', (msg: ChunkReply) => {
+          if (cancelled) return;
+          if ('progress' in msg) return;
+          if ('error' in msg) {
+            fail(msg.error.name === 'SimulationError' ? `The sweep diverged: ${msg.error.message}` : msg.error.message);
+            return;
+          }
+          const at = offsets[msg.id] ?? 0;
+          msg.points.forEach((p, j) => cb.onPoint(at + j, p.volumetricEfficiency, p.converged));
+          finished++;
+          if (finished === chunks.length) {
+            stop();
+            cb.onDone();
+          } else feed(w);
+        });
+        w.on('error', (e) => fail(`sweep thread failed: ${e instanceof Error ? e.message : String(e)}`));
+        w.on('exit', (code) => {
+          if (!cancelled && finished < chunks.length) fail(`sweep thread stopped early (exit code ${code})`);
+        });
+        feed(w);
+      }
+      return {
+        cancel() {
+          fallback?.cancel();
+          stop();
+        },
+      };
+    },
+
+    async close() {
+      const all = [...sweepThreads];
+      sweepThreads.clear();
+      const w = pointWorker;
+      pointWorker = undefined;
+      failAll(new RunError('closed', false));
+      await Promise.all([...all.map((t) => t.terminate()), w ? w.terminate() : Promise.resolve(0)]);
+    },
+  };
+}

@@ -1,0 +1,141 @@
+/**
+ * The case values the case panel lets you change, in the units people use
+ * at the bench. An edit becomes a case-file override (`path` = `value unit`),
+ * the same form as `--set` on the command line, so the case loader does every
+ * unit conversion; the panel only shows and types numbers.
+ */
+
+export interface FieldDef {
+  /** case-file path, as for `--set` */
+  path: string;
+  label: string;
+  /** unit shown beside the value */
+  unit: string;
+  /** the unit word written into the override ('' = a plain number) */
+  unitWord: string;
+  /** the step of the larger/smaller keys */
+  step: number;
+  decimals: number;
+  /** short help shown while the field is selected */
+  hint: string;
+}
+
+export const FIELDS: readonly FieldDef[] = [
+  {
+    path: 'rpm',
+    label: 'Engine speed',
+    unit: 'rpm',
+    unitWord: '',
+    step: 250,
+    decimals: 0,
+    hint: 'the speed of this point; + and - change it from any view',
+  },
+  {
+    path: 'runner.length',
+    label: 'Runner length',
+    unit: 'mm',
+    unitWord: 'mm',
+    step: 10,
+    decimals: 0,
+    hint: 'longer: the wave takes longer to come back, tuned speed goes down',
+  },
+  {
+    path: 'runner.diameter',
+    label: 'Runner diameter',
+    unit: 'mm',
+    unitWord: 'mm',
+    step: 1,
+    decimals: 1,
+    hint: 'smaller: faster gas and stronger waves, but more restriction at high speed',
+  },
+  {
+    path: 'inlet.volume',
+    label: 'Plenum volume',
+    unit: 'L',
+    unitWord: 'L',
+    step: 0.25,
+    decimals: 2,
+    hint: 'the airbox the runner draws from',
+  },
+  {
+    path: 'intake.opens',
+    label: 'Intake opens',
+    unit: '° BTDC',
+    unitWord: 'deg',
+    step: 2,
+    decimals: 0,
+    hint: 'degrees before top dead centre at the start of the intake stroke',
+  },
+  {
+    path: 'intake.closes',
+    label: 'Intake closes',
+    unit: '° ABDC',
+    unitWord: 'deg',
+    step: 2,
+    decimals: 0,
+    hint: 'degrees after bottom dead centre; later closing suits higher speeds',
+  },
+  {
+    path: 'exhaust.opens',
+    label: 'Exhaust opens',
+    unit: '° BBDC',
+    unitWord: 'deg',
+    step: 2,
+    decimals: 0,
+    hint: 'degrees before bottom dead centre of the power stroke',
+  },
+  {
+    path: 'exhaust.closes',
+    label: 'Exhaust closes',
+    unit: '° ATDC',
+    unitWord: 'deg',
+    step: 2,
+    decimals: 0,
+    hint: 'degrees after top dead centre; with intake opening this sets the overlap',
+  },
+  {
+    path: 'ambient.pressure',
+    label: 'Ambient pressure',
+    unit: 'kPa',
+    unitWord: 'kPa',
+    step: 1,
+    decimals: 1,
+    hint: 'the air the engine breathes; lower at altitude',
+  },
+  {
+    path: 'ambient.temperature',
+    label: 'Ambient temperature',
+    unit: '°C',
+    unitWord: 'degC',
+    step: 5,
+    decimals: 0,
+    hint: 'warmer air is thinner and carries sound faster',
+  },
+];
+
+export function fieldByPath(path: string): FieldDef | undefined {
+  return FIELDS.find((f) => f.path === path);
+}
+
+/** The override text for a value typed in display units, e.g. "320 mm". */
+export function overrideText(field: FieldDef, value: number): string {
+  const v = roundTo(value, field.decimals + 2);
+  return field.unitWord ? `${v} ${field.unitWord}` : `${v}`;
+}
+
+export function formatField(field: FieldDef, value: number): string {
+  return value.toFixed(field.decimals);
+}
+
+export function roundTo(v: number, decimals: number): number {
+  const f = Math.pow(10, decimals);
+  return Math.round(v * f) / f;
+}
+
+/** Parse a typed number ("320", "320.5", "-4"); undefined when it is not one. */
+export function parseTyped(text: string): number | undefined {
+  const t = text.trim();
+  if (!/^[-+]?(\d+(\.\d*)?|\.\d+)$/.test(t)) return undefined;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : undefined;
+}

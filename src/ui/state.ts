@@ -1,0 +1,470 @@
+/**
+ * The terminal view's state and its one pure reducer: key → typed action →
+ * `reduce(state, action)`. Nothing here touches the terminal, files, the
+ * clock or the solver; the top component (app.tsx) runs those effects and
+ * reports back with actions such as `pointDone`.
+ */
+import type { PointResult } from '../core/model.js';
+import { FIELDS, type FieldDef, fieldByPath, overrideText, parseTyped, roundTo } from './fields.js';
+import { mod } from './chart.js';
+
+export type ViewName = 'valve' | 'runner' | 'sweep' | 'case';
+export const VIEWS: readonly ViewName[] = ['valve', 'runner', 'sweep', 'case'];
+export const VIEW_TITLES: Record<ViewName, string> = {
+  valve: 'Valve',
+  runner: 'Runner',
+  sweep: 'Sweep',
+  case: 'Case',
+};
+
+/** Crank windows the zoom key cycles through [deg]. */
+export const ZOOMS = [720, 360, 180, 90] as const;
+/** Play rates [crank degrees per second]. */
+export const RATES = [15, 30, 60, 120, 240, 480] as const;
+/** Engine-speed step of the + and - keys [rpm]. */
+export const RPM_STEP = 250;
+export const RPM_MIN = 250;
+export const RPM_MAX = 30000;
+
+/** Pulse timing as the analysis reports it, reduced to what the view shows. */
+export interface PulseSummary {
+  verdict: string;
+  /** what the valve sees when it opens */
+  openingNote?: string;
+  /** wave round trip 12·N·L/a [crank deg] */
+  roundTripDeg?: number;
+  /** crank angle of the last compression peak before IVC [deg] */
+  lastPeakDeg?: number;
+  /** IVC − last peak [deg] (positive: the peak comes before closing) */
+  peakBeforeIvcDeg?: number;
+}
+
+export interface PointShown {
+  result: PointResult;
+  pulse?: PulseSummary | undefined;
+  /** what was changed to get this result (for the baseline label) */
+  label: string;
+  /** ambient pressure of the model it was run with [Pa] */
+  ambient: number;
+  /** the runner's upstream end opens to */
+  upstream: 'ambient' | 'plenum';
+  /** the field values it was run with (display units); set by the reducer */
+  values?: Record<string, number> | undefined;
+}
+
+export interface SweepCurve {
+  rpms: number[];
+  /** ηv per speed; null until computed */
+  eta: (number | null)[];
+  converged: (boolean | null)[];
+  label: string;
+}
+
+export interface Edit {
+  path: string;
+  /** override text, e.g. "320 mm" */
+  value: string;
+}
+
+export interface UiState {
+  view: ViewName;
+  /** cursor crank angle [deg, 0..719] */
+  crank: number;
+  playing: boolean;
+  rateIndex: number;
+  /** fractional degrees carried between play ticks */
+  playCarry: number;
+  zoomIndex: number;
+  help: boolean;
+  teach: boolean;
+  quit: boolean;
+
+  /** overrides applied on top of the case file, in order */
+  edits: Edit[];
+  /** the edits of the last result that ran without an input error */
+  goodEdits: Edit[];
+  /** field values in display units (case panel) */
+  values: Record<string, number>;
+  goodValues: Record<string, number>;
+  /** fields this case has (e.g. no plenum volume without a plenum) */
+  fields: readonly FieldDef[];
+  selected: number;
+  /** text being typed into the selected field, if editing */
+  editing?: string | undefined;
+
+  /** the run the top component should be doing (id changes → run) */
+  request: { id: number; edits: Edit[]; label: string };
+  running: boolean;
+  point?: PointShown | undefined;
+  baseline?: PointShown | undefined;
+  runError?: string | undefined;
+
+  sweepPlan: { rpms: number[]; band: { from: number; to: number } };
+  sweepRequest: number;
+  sweepStatus: 'idle' | 'running' | 'done' | 'stopped' | 'failed';
+  sweep?: SweepCurve | undefined;
+  sweepBaseline?: SweepCurve | undefined;
+  /** the edits the current sweep was run with */
+  sweepEdits?: Edit[] | undefined;
+
+  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; overwrite: boolean } | undefined;
+  suggestedSavePath: string;
+  message?: { text: string; tone: 'info' | 'error' } | undefined;
+}
+
+export type Action =
+  | { type: 'step'; by: number }
+  | { type: 'setCrank'; to: number }
+  | { type: 'nextEvent'; dir: 1 | -1 }
+  | { type: 'togglePlay' }
+  | { type: 'rate'; dir: 1 | -1 }
+  | { type: 'tick'; ms: number }
+  | { type: 'nextView'; dir: 1 | -1 }
+  | { type: 'showView'; view: ViewName }
+  | { type: 'speed'; by: number }
+  | { type: 'toggleHelp' }
+  | { type: 'closeHelp' }
+  | { type: 'toggleTeach' }
+  | { type: 'zoom'; dir: 1 | -1 }
+  | { type: 'pinBaseline' }
+  | { type: 'quit' }
+  | { type: 'select'; by: number }
+  | { type: 'beginEdit' }
+  | { type: 'type'; text: string }
+  | { type: 'backspace' }
+  | { type: 'commitEdit' }
+  | { type: 'cancel' }
+  | { type: 'nudge'; dir: 1 | -1 }
+  | { type: 'pointDone'; id: number; point: PointShown }
+  | { type: 'pointFailed'; id: number; message: string; badInput: boolean }
+  | { type: 'sweepStart' }
+  | { type: 'sweepStop' }
+  | { type: 'sweepPoint'; id: number; index: number; eta: number; converged: boolean }
+  | { type: 'sweepDone'; id: number }
+  | { type: 'sweepFailed'; id: number; message: string }
+  | { type: 'pinSweep' }
+  | { type: 'beginSave' }
+  | { type: 'saveChecked'; exists: boolean }
+  | { type: 'confirm'; yes: boolean }
+  | { type: 'saved'; path: string; next: string }
+  | { type: 'saveFailed'; message: string }
+  | { type: 'suggestSave'; path: string }
+  | { type: 'message'; text: string; tone: 'info' | 'error' };
+
+export interface InitOptions {
+  /** field values in display units, from the case */
+  values: Record<string, number>;
+  /** field paths this case supports */
+  fieldPaths?: readonly string[];
+  sweepPlan: { rpms: number[]; band: { from: number; to: number } };
+  suggestedSavePath: string;
+  teach?: boolean;
+}
+
+export function initialState(o: InitOptions): UiState {
+  const fields = FIELDS.filter(
+    (f) => (o.fieldPaths ? o.fieldPaths.includes(f.path) : true) && o.values[f.path] !== undefined,
+  );
+  return {
+    view: 'valve',
+    crank: 0,
+    playing: false,
+    rateIndex: 2,
+    playCarry: 0,
+    zoomIndex: 0,
+    help: false,
+    teach: o.teach ?? true,
+    quit: false,
+    edits: [],
+    goodEdits: [],
+    values: { ...o.values },
+    goodValues: { ...o.values },
+    fields,
+    selected: 0,
+    request: { id: 1, edits: [], label: 'as loaded' },
+    running: true,
+    sweepPlan: o.sweepPlan,
+    sweepRequest: 0,
+    sweepStatus: 'idle',
+    suggestedSavePath: o.suggestedSavePath,
+  };
+}
+
+export function zoomSpan(s: UiState): number {
+  return ZOOMS[s.zoomIndex] ?? 720;
+}
+
+export function playRate(s: UiState): number {
+  return RATES[s.rateIndex] ?? 60;
+}
+
+/** The valve events of the shown result, sorted by crank angle. */
+export function eventList(s: UiState): { name: string; at: number }[] {
+  const ev = s.point?.result.events;
+  if (!ev) return [];
+  return [
+    { name: 'IVO', at: ev.ivo },
+    { name: 'IVC', at: ev.ivc },
+    { name: 'EVO', at: ev.evo },
+    { name: 'EVC', at: ev.evc },
+  ]
+    .map((e) => ({ name: e.name, at: mod(Math.round(e.at), 720) }))
+    .sort((a, b) => a.at - b.at);
+}
+
+/** The next (dir 1) or previous (dir −1) valve event from `crank`, wrapping around the cycle. */
+export function nextEventAngle(events: readonly { at: number }[], crank: number, dir: 1 | -1): number | undefined {
+  if (events.length === 0) return undefined;
+  let best: number | undefined;
+  let bestGap = Infinity;
+  for (const e of events) {
+    const gap = dir === 1 ? mod(e.at - crank, 720) : mod(crank - e.at, 720);
+    const g = gap === 0 ? 720 : gap;
+    if (g < bestGap) {
+      bestGap = g;
+      best = e.at;
+    }
+  }
+  return best;
+}
+
+function withEdit(edits: readonly Edit[], edit: Edit): Edit[] {
+  return [...edits.filter((e) => e.path !== edit.path), edit];
+}
+
+function describeEdit(field: FieldDef, value: number): string {
+  return `${field.label.toLowerCase()} ${roundTo(value, field.decimals)} ${field.unit}`;
+}
+
+/** Change one field (display units) and ask for a re-run. */
+function applyValue(s: UiState, field: FieldDef, value: number): UiState {
+  const edits = withEdit(s.edits, { path: field.path, value: overrideText(field, value) });
+  const changed: UiState = {
+    ...s,
+    edits,
+    values: { ...s.values, [field.path]: value },
+    editing: undefined,
+    request: { id: s.request.id + 1, edits, label: describeEdit(field, value) },
+    running: true,
+    runError: undefined,
+    message: undefined,
+  };
+  // a design change makes the sweep curve out of date: keep it as the
+  // baseline and run the new curve in the background (speed changes do not)
+  if (field.path !== 'rpm' && s.sweep && s.sweepStatus !== 'idle') return startSweep(changed);
+  return changed;
+}
+
+function startSweep(s: UiState): UiState {
+  const keepAsBaseline = s.sweep && s.sweep.eta.some((v) => v !== null) ? s.sweep : s.sweepBaseline;
+  return {
+    ...s,
+    sweepRequest: s.sweepRequest + 1,
+    sweepStatus: 'running',
+    sweep: {
+      rpms: [...s.sweepPlan.rpms],
+      eta: s.sweepPlan.rpms.map(() => null),
+      converged: s.sweepPlan.rpms.map(() => null),
+      label: s.request.label,
+    },
+    sweepBaseline: keepAsBaseline,
+    sweepEdits: s.edits,
+  };
+}
+
+function clampRpm(v: number): number {
+  return Math.min(RPM_MAX, Math.max(RPM_MIN, v));
+}
+
+export function reduce(s: UiState, a: Action): UiState {
+  switch (a.type) {
+    case 'step':
+      return { ...s, crank: mod(s.crank + a.by, 720), playCarry: 0 };
+    case 'setCrank':
+      return { ...s, crank: mod(Math.round(a.to), 720), playCarry: 0 };
+    case 'nextEvent': {
+      const at = nextEventAngle(eventList(s), s.crank, a.dir);
+      return at === undefined ? s : { ...s, crank: at, playCarry: 0 };
+    }
+    case 'togglePlay':
+      return { ...s, playing: !s.playing, playCarry: 0 };
+    case 'rate':
+      return { ...s, rateIndex: Math.min(RATES.length - 1, Math.max(0, s.rateIndex + a.dir)) };
+    case 'tick': {
+      if (!s.playing) return s;
+      const deg = s.playCarry + (playRate(s) * a.ms) / 1000;
+      const whole = Math.floor(deg);
+      return { ...s, crank: mod(s.crank + whole, 720), playCarry: deg - whole };
+    }
+    case 'nextView': {
+      const i = VIEWS.indexOf(s.view);
+      const view = VIEWS[mod(i + a.dir, VIEWS.length)] as ViewName;
+      return { ...s, view, editing: undefined };
+    }
+    case 'showView':
+      return { ...s, view: a.view, editing: undefined };
+    case 'speed': {
+      const field = fieldByPath('rpm');
+      const current = s.values['rpm'];
+      if (!field || current === undefined) return s;
+      const next = clampRpm(Math.round((current + a.by) / RPM_STEP) * RPM_STEP);
+      if (next === current) return s;
+      return applyValue(s, field, next);
+    }
+    case 'toggleHelp':
+      return { ...s, help: !s.help };
+    case 'closeHelp':
+      return { ...s, help: false };
+    case 'toggleTeach':
+      return { ...s, teach: !s.teach };
+    case 'zoom':
+      return { ...s, zoomIndex: Math.min(ZOOMS.length - 1, Math.max(0, s.zoomIndex + a.dir)) };
+    case 'pinBaseline':
+      if (!s.point) return s;
+      return { ...s, baseline: s.point, message: { text: 'Pinned this result as the baseline.', tone: 'info' } };
+    case 'quit':
+      return { ...s, quit: true, playing: false };
+
+    case 'select': {
+      if (s.fields.length === 0) return s;
+      return { ...s, selected: mod(s.selected + a.by, s.fields.length), editing: undefined };
+    }
+    case 'beginEdit': {
+      const f = s.fields[s.selected];
+      if (!f) return s;
+      return { ...s, editing: '', message: undefined };
+    }
+    case 'type': {
+      if (s.save && s.save.stage === 'typing') {
+        return { ...s, save: { ...s.save, path: s.save.path + a.text } };
+      }
+      if (s.editing === undefined) return s;
+      const text = (s.editing + a.text).replace(/[^0-9.+-]/g, '').slice(0, 12);
+      return { ...s, editing: text };
+    }
+    case 'backspace': {
+      if (s.save && s.save.stage === 'typing') {
+        return { ...s, save: { ...s.save, path: s.save.path.slice(0, -1) } };
+      }
+      if (s.editing === undefined) return s;
+      return { ...s, editing: s.editing.slice(0, -1) };
+    }
+    case 'commitEdit': {
+      const f = s.fields[s.selected];
+      if (!f || s.editing === undefined) return s;
+      const v = parseTyped(s.editing);
+      if (v === undefined) {
+        return { ...s, message: { text: `${f.label}: type a number in ${f.unit}.`, tone: 'error' } };
+      }
+      if (s.values[f.path] === v) return { ...s, editing: undefined };
+      return applyValue(s, f, v);
+    }
+    case 'cancel': {
+      if (s.save) return { ...s, save: undefined, message: { text: 'Not saved.', tone: 'info' } };
+      if (s.editing !== undefined) return { ...s, editing: undefined };
+      if (s.help) return { ...s, help: false };
+      return s;
+    }
+    case 'nudge': {
+      const f = s.fields[s.selected];
+      const v = f ? s.values[f.path] : undefined;
+      if (!f || v === undefined) return s;
+      const next = roundTo(v + a.dir * f.step, f.decimals + 2);
+      if (f.path === 'rpm') return applyValue(s, f, clampRpm(next));
+      return applyValue(s, f, next);
+    }
+
+    case 'pointDone': {
+      if (a.id !== s.request.id) return s;
+      const first = s.point === undefined;
+      return {
+        ...s,
+        running: false,
+        point: { ...a.point, values: { ...s.values } },
+        baseline: first ? s.baseline : s.point,
+        goodEdits: s.request.edits,
+        goodValues: { ...s.values },
+        runError: undefined,
+      };
+    }
+    case 'pointFailed': {
+      if (a.id !== s.request.id) return s;
+      if (a.badInput) {
+        // put the bad value back, keep the last good result on screen
+        return {
+          ...s,
+          running: false,
+          edits: s.goodEdits,
+          values: { ...s.goodValues },
+          request: { ...s.request, edits: s.goodEdits },
+          runError: a.message,
+          message: { text: a.message, tone: 'error' },
+        };
+      }
+      return { ...s, running: false, runError: a.message, message: { text: a.message, tone: 'error' } };
+    }
+
+    case 'sweepStart':
+      return startSweep(s);
+    case 'sweepStop':
+      if (s.sweepStatus !== 'running') return s;
+      return { ...s, sweepStatus: 'stopped', sweepRequest: s.sweepRequest + 1 };
+    case 'sweepPoint': {
+      if (a.id !== s.sweepRequest || !s.sweep) return s;
+      const eta = [...s.sweep.eta];
+      const converged = [...s.sweep.converged];
+      eta[a.index] = a.eta;
+      converged[a.index] = a.converged;
+      return { ...s, sweep: { ...s.sweep, eta, converged } };
+    }
+    case 'sweepDone':
+      if (a.id !== s.sweepRequest) return s;
+      return { ...s, sweepStatus: 'done' };
+    case 'sweepFailed':
+      if (a.id !== s.sweepRequest) return s;
+      return { ...s, sweepStatus: 'failed', message: { text: a.message, tone: 'error' } };
+    case 'pinSweep':
+      if (!s.sweep) return s;
+      return { ...s, sweepBaseline: s.sweep, message: { text: 'Pinned this curve as the baseline.', tone: 'info' } };
+
+    case 'beginSave':
+      return {
+        ...s,
+        editing: undefined,
+        save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false },
+        message: undefined,
+      };
+    case 'saveChecked':
+      if (!s.save || (s.save.stage !== 'checking' && s.save.stage !== 'saving')) return s;
+      return { ...s, save: { ...s.save, stage: a.exists ? 'confirm' : 'saving' } };
+    case 'confirm':
+      if (!s.save) return s;
+      if (s.save.stage === 'typing') {
+        // Enter on the path
+        if (s.save.path.trim() === '') return { ...s, message: { text: 'Type a file name to save to.', tone: 'error' } };
+        return { ...s, save: { ...s.save, path: s.save.path.trim(), stage: 'checking' } };
+      }
+      if (s.save.stage !== 'confirm') return s;
+      if (!a.yes) return { ...s, save: { ...s.save, stage: 'typing' }, message: { text: 'Choose another name.', tone: 'info' } };
+      return { ...s, save: { ...s.save, stage: 'saving', overwrite: true } };
+    case 'saved':
+      return {
+        ...s,
+        save: undefined,
+        suggestedSavePath: a.next,
+        message: { text: `Saved to ${a.path}`, tone: 'info' },
+      };
+    case 'saveFailed':
+      return { ...s, save: undefined, message: { text: a.message, tone: 'error' } };
+    case 'suggestSave':
+      return { ...s, suggestedSavePath: a.path };
+    case 'message':
+      return { ...s, message: { text: a.text, tone: a.tone } };
+  }
+}
+
+/** Whether a sweep exists that was run before the latest edits. */
+export function sweepIsStale(s: UiState): boolean {
+  if (!s.sweep || !s.sweepEdits) return false;
+  return JSON.stringify(s.sweepEdits) !== JSON.stringify(s.edits);
+}

@@ -1,0 +1,156 @@
+/**
+ * The valve view as text lines: valve-end pressure, valve mass flow and
+ * cylinder mass against crank angle over one converged cycle, one shared
+ * crank axis with TDC/BDC and the valve events, the cursor, the values at the
+ * cursor in each chart's title, and the pulse verdict. Pure.
+ */
+import { crankAxis, crankChart, cycleMarks, valueRange, GLYPH, type ChartSeries } from './chart.js';
+import { firstFit, fit, gps, kpa, kpaSigned, mg, mm, wrapWords } from './text.js';
+
+export interface ValveTraces {
+  /** [Pa], one sample per crank degree */
+  valvePressure: ArrayLike<number>;
+  /** [kg/s] positive into the cylinder */
+  valveFlow: ArrayLike<number>;
+  /** [kg] */
+  cylinderMass: ArrayLike<number>;
+  /** [m] */
+  lift: ArrayLike<number>;
+}
+
+export interface ValveScreenInput {
+  width: number;
+  rows: number;
+  crank: number;
+  /** crank window [deg] */
+  from: number;
+  span: number;
+  now: ValveTraces;
+  before?: ValveTraces | undefined;
+  /** ambient (reference) pressure [Pa] */
+  reference: number;
+  events: { ivo: number; ivc: number; evo: number; evc: number };
+  verdict?: string | undefined;
+  /** what the valve sees when it opens (shown when there is room) */
+  openingNote?: string | undefined;
+}
+
+export const VALVE_GUTTER = 7;
+
+/** Chart heights for the rows available to the three charts. */
+export function valveChartRows(chartRows: number): [number, number, number] {
+  const p = Math.max(2, Math.round(chartRows * 0.55));
+  const f = Math.max(1, Math.round(chartRows * 0.27));
+  const m = Math.max(1, chartRows - p - f);
+  return [p, f, m];
+}
+
+function at(a: ArrayLike<number>, crank: number): number {
+  return a[crank] ?? Number.NaN;
+}
+
+function label1(v: number): string {
+  return Math.abs(v) >= 1000 ? v.toFixed(0) : v.toFixed(1);
+}
+
+export function valveScreen(i: ValveScreenInput): string[] {
+  const w = i.width;
+  const noteRows = i.openingNote && i.rows >= 26 ? 1 : 0;
+  const fixed = 3 /* titles */ + 2 /* axis */ + 2 /* verdict */ + noteRows;
+  const [hp, hf, hm] = valveChartRows(Math.max(4, i.rows - fixed));
+  const g = VALVE_GUTTER;
+  const series = (pick: (t: ValveTraces) => ArrayLike<number>, scale: number): ChartSeries[] => {
+    const s: ChartSeries[] = [];
+    if (i.before) s.push({ values: scaled(pick(i.before), scale), style: 'dots' });
+    s.push({ values: scaled(pick(i.now), scale), style: 'line' });
+    return s;
+  };
+  const common = { width: w, gutter: g, from: i.from, span: i.span, cursor: i.crank };
+
+  // pressure [kPa]
+  const pS = series((t) => t.valvePressure, 1e-3);
+  const pR = valueRange(
+    pS.map((s) => s.values),
+    { include: [i.reference / 1000], minSpan: 2, pad: 0.04 },
+  );
+  const pLines = crankChart(pS, {
+    ...common,
+    height: hp,
+    yMin: pR.min,
+    yMax: pR.max,
+    formatY: label1,
+    reference: i.reference / 1000,
+  });
+  // flow [g/s]
+  const fS = series((t) => t.valveFlow, 1e3);
+  const fR = valueRange(
+    fS.map((s) => s.values),
+    { include: [0], minSpan: 1, pad: 0.04 },
+  );
+  const fLines = crankChart(fS, { ...common, height: hf, yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
+  // mass [mg]
+  const mS = series((t) => t.cylinderMass, 1e6);
+  const mR = valueRange(
+    mS.map((s) => s.values),
+    { minSpan: 1 },
+  );
+  const mLines = crankChart(mS, { ...common, height: hm, yMin: mR.min, yMax: mR.max, formatY: label1 });
+
+  const c = i.crank;
+  const p = at(i.now.valvePressure, c);
+  const legend = i.before
+    ? `${GLYPH.flat} now ${GLYPH.baseline} baseline ${GLYPH.reference} ambient`
+    : `${GLYPH.flat} now ${GLYPH.reference} ambient`;
+  const pTitle = titleWithLegend(
+    [
+      `Pressure at the valve  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient)`,
+      `Valve pressure ${kpa(p)} kPa (${kpaSigned(p - i.reference)})`,
+      `p ${kpa(p)} kPa`,
+    ],
+    legend,
+    w,
+  );
+  const flow = at(i.now.valveFlow, c);
+  const lift = at(i.now.lift, c);
+  const dir = flow > 0 ? 'into the cylinder' : flow < 0 ? 'back into the runner' : '';
+  const fTitle = firstFit(
+    [
+      `Flow through the valve  ${gps(flow)} g/s ${dir}   ·   lift ${mm(lift)} mm`,
+      `Valve flow ${gps(flow)} g/s ${dir}  lift ${mm(lift)} mm`,
+      `Flow ${gps(flow)} g/s  lift ${mm(lift)} mm`,
+    ],
+    w,
+  );
+  const mass = at(i.now.cylinderMass, c);
+  const mTitle = firstFit([`Gas in the cylinder  ${mg(mass)} mg`, `Cylinder ${mg(mass)} mg`], w);
+  const axis = crankAxis(cycleMarks(i.events), common);
+  const verdict = i.verdict
+    ? wrapWords(`At IVC: ${i.verdict}.`, w, 2)
+    : [fit('At IVC: (no pulse timing for this point)', w)];
+  while (verdict.length < 2) verdict.push(fit('', w));
+  if (noteRows > 0) verdict.push(...wrapWords(`At IVO: ${i.openingNote ?? ''}.`, w, 1));
+
+  const lines = [pTitle, ...pLines, fTitle, ...fLines, mTitle, ...mLines, ...axis, ...verdict];
+  return padLines(lines, i.rows, w);
+}
+
+function scaled(a: ArrayLike<number>, k: number): Float64Array {
+  const out = new Float64Array(a.length);
+  for (let j = 0; j < a.length; j++) out[j] = (a[j] as number) * k;
+  return out;
+}
+
+/** A title on the left and a legend on the right, both fitted into `w`. */
+export function titleWithLegend(titles: readonly string[], legend: string, w: number): string {
+  for (const t of titles) {
+    if (t.length + 2 + legend.length <= w) return t + ' '.repeat(w - t.length - legend.length) + legend;
+  }
+  return firstFit(titles, w);
+}
+
+/** Exactly `rows` lines of exactly `w` columns. */
+export function padLines(lines: readonly string[], rows: number, w: number): string[] {
+  const out = lines.slice(0, rows).map((l) => fit(l, w));
+  while (out.length < rows) out.push(' '.repeat(w));
+  return out;
+}
