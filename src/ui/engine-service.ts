@@ -156,7 +156,7 @@ export interface ThreadEngineOptions {
 }
 
 /** Points on a worker of our own, sweeps on the analysis module's workers. */
-export function threadEngine(options: ThreadEngineOptions = {}): EngineService {
+export function threadEngine(options: ThreadEngineOptions = {}): EngineService & { onThread: () => boolean } {
   const inline = inlineEngine();
   let pointWorker: Worker | undefined;
   let ready: Promise<boolean> | undefined;
@@ -215,9 +215,17 @@ export function threadEngine(options: ThreadEngineOptions = {}): EngineService {
     return ready;
   };
 
+  let served = false;
   return {
+    /** whether the last point ran on the worker thread (false: it fell back to this thread) */
+    onThread: () => served,
+
     async runPoint(model, warmStart) {
-      if (!(await ensureWorker()) || !pointWorker) return inline.runPoint(model, warmStart);
+      if (!(await ensureWorker()) || !pointWorker) {
+        served = false;
+        return inline.runPoint(model, warmStart);
+      }
+      served = true;
       const w = pointWorker;
       const id = ++nextId;
       return new Promise<PointOutcome>((resolve, reject) => {

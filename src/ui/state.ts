@@ -428,8 +428,11 @@ export function reduce(s: UiState, a: Action): UiState {
       return { ...s, sweepBaseline: s.sweep, message: { text: 'Pinned this curve as the baseline.', tone: 'info' } };
 
     case 'beginSave':
+      // the prompt is in the case view
       return {
         ...s,
+        view: 'case',
+        help: false,
         editing: undefined,
         save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false },
         message: undefined,

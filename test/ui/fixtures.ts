@@ -60,7 +60,8 @@ export function syntheticResult(o: SyntheticOptions = {}): PointResult {
     exhaustLift[t] = maxLift * bump(t, EVENTS.evo, 250);
     valvePressure[t] = AMBIENT + ring(t);
     // into the cylinder while the intake valve is open, a little back-flow in the overlap
-    valveFlow[t] = lift[t] > 0 ? (t >= EVENTS.ivo ? -0.004 : 0.08 * (lift[t] / maxLift)) : 0;
+    const l = lift[t] as number;
+    valveFlow[t] = l > 0 ? (t >= EVENTS.ivo ? -0.004 : 0.08 * (l / maxLift)) : 0;
     mass = t === 0 ? 5e-5 : Math.max(1e-5, mass + (valveFlow[t] as number) / (6 * rpm));
     cylinderMass[t] = mass;
     cylinderPressure[t] = AMBIENT;

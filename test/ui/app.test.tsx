@@ -1,0 +1,183 @@
+/**
+ * The terminal view through Ink at a fixed size, with a fake case session and
+ * a fake engine that answers with SYNTHETIC results (fixtures.ts). These test
+ * the screen and the keys, not physics.
+ */
+import React from 'react';
+import { afterEach, describe, expect, it } from 'vitest';
+import { cleanup, render } from 'ink-testing-library';
+import { App } from '../../src/ui/app.js';
+import { stripAnsi } from '../../src/ui/text.js';
+import { fakeEngine, fakeSession } from './fixtures.js';
+
+const RIGHT = '\u001b[C';
+const DOWN = '\u001b[B';
+const TAB = '\t';
+const ENTER = '\r';
+const BACKSPACE = '\u007f';
+
+/** Ink needs a moment after a key before the frame shows it. */
+const settle = (ms = 60): Promise<void> => new Promise((r) => setTimeout(r, ms));
+
+function start(size = { columns: 80, rows: 24 }, color = false) {
+  const session = fakeSession();
+  const engine = fakeEngine();
+  const app = render(<App session={session} engine={engine} size={size} color={color} debounceMs={0} />);
+  const frame = (): string => stripAnsi(app.lastFrame() ?? '');
+  const press = async (...keys: string[]): Promise<void> => {
+    for (const k of keys) {
+      app.stdin.write(k);
+      await settle();
+    }
+  };
+  return { app, session, engine, frame, press };
+}
+
+function expectFits(frame: string, columns: number, rows: number): void {
+  const lines = frame.split('\n');
+  expect(lines.length).toBeLessThanOrEqual(rows - 1);
+  for (const l of lines) expect([...l].length).toBeLessThanOrEqual(columns);
+}
+
+afterEach(() => {
+  cleanup();
+});
+
+describe('the terminal view', () => {
+  it('first frame shows IVO/IVC on the crank axis and a crank readout', async () => {
+    const t = start();
+    await settle();
+    const f = t.frame();
+    expect(f).toContain('IVO');
+    expect(f).toContain('IVC');
+    expect(f).toContain('TDC');
+    expect(f).toContain('θ   0°');
+    expect(f).toMatch(/Pressure at the valve +\d+\.\d kPa/);
+    expect(f).toContain('synthetic verdict');
+    expect(t.engine.runs).toHaveLength(1);
+  });
+
+  it('→ moves the cursor and changes the readout', async () => {
+    const t = start();
+    await settle();
+    const before = t.frame().split('\n')[1];
+    await t.press(RIGHT, RIGHT, RIGHT, RIGHT, RIGHT);
+    const f = t.frame();
+    expect(f).toContain('θ   5°');
+    expect(f.split('\n')[1]).not.toBe(before);
+  });
+
+  it('? shows the help with every key, "quit" and the safety caution; esc closes it', async () => {
+    const t = start();
+    await settle();
+    await t.press('?');
+    const f = t.frame();
+    expect(f).toContain('quit');
+    expect(f).toContain('Safety');
+    expect(f).toContain('ten degrees');
+    expectFits(f, 80, 24);
+    await t.press('\u001b');
+    await settle(100); // esc is told apart from an escape sequence after a short wait
+    expect(t.frame()).not.toContain('Safety');
+  });
+
+  it('tab cycles the views', async () => {
+    const t = start();
+    await settle();
+    const seen: string[] = [];
+    for (let k = 0; k < 4; k++) {
+      await t.press(TAB);
+      seen.push(/\[(\d \w+)\]/.exec(t.frame())?.[1] ?? '?');
+    }
+    expect(seen).toEqual(['2 Runner', '3 Sweep', '4 Case', '1 Valve']);
+  });
+
+  it('an edit in the case view re-runs the point and shows the old result as the baseline', async () => {
+    const t = start();
+    await settle();
+    await t.press('4', DOWN, ENTER, '4', '2', '0', ENTER);
+    await settle(80);
+    expect(t.engine.runs).toHaveLength(2);
+    expect(t.engine.runs[1]?.runner.sections[0]?.length).toBeCloseTo(0.42, 12);
+    let f = t.frame();
+    expect(f).toContain('420 mm');
+    expect(f).toContain('(baseline 300)');
+    expect(f).toMatch(/baseline \d\.\d{3}/);
+    await t.press('1');
+    f = t.frame();
+    expect(f).toContain('· baseline');
+    expect(f).toMatch(/\d·|·\d|··/); // the baseline curve's dots are drawn
+  });
+
+  it('+ and - change the engine speed and re-run', async () => {
+    const t = start();
+    await settle();
+    await t.press('+');
+    await settle(60);
+    expect(t.frame()).toContain('6250 rpm');
+    expect(t.engine.runs.at(-1)?.rpm).toBe(6250);
+    await t.press('-', '-');
+    await settle(60);
+    expect(t.engine.runs.at(-1)?.rpm).toBe(5750);
+  });
+
+  it('runs the sweep in the background and shows the band mean and best speed', async () => {
+    const t = start();
+    await settle();
+    await t.press('3', 's');
+    await settle(150);
+    const f = t.frame();
+    expect(f).toContain('7 points');
+    expect(f).toMatch(/mean ηv \d\.\d{3}/);
+    expect(f).toMatch(/Best \d+ rpm/);
+    expect(f).toContain('5000–8000 rpm');
+  });
+
+  it('saves to a new name, and asks before overwriting an existing file', async () => {
+    const t = start();
+    await settle();
+    await t.press('w');
+    expect(t.frame()).toContain('/cases/synthetic-3.yaml');
+    await t.press(ENTER);
+    await settle(80);
+    expect(t.session.saved).toEqual([{ edits: [], path: '/cases/synthetic-3.yaml', overwrite: false }]);
+    expect(t.frame()).toContain('Saved to /cases/synthetic-3.yaml');
+    // now type the name of a file that exists
+    await t.press('w');
+    await t.press(...Array.from({ length: 6 }, () => BACKSPACE), '2.yaml', ENTER);
+    await settle(80);
+    expect(t.frame()).toContain('/cases/synthetic-2.yaml already exists. Overwrite it?');
+    expect(t.session.saved).toHaveLength(1);
+    await t.press('y');
+    await settle(80);
+    expect(t.session.saved[1]).toEqual({ edits: [], path: '/cases/synthetic-2.yaml', overwrite: true });
+  });
+
+  it.each([
+    [80, 24],
+    [72, 22],
+    [120, 40],
+  ])('at %i × %i no line is wider than the terminal in any view (colour on, ANSI stripped)', async (columns, rows) => {
+    const t = start({ columns, rows }, true);
+    await settle();
+    for (const k of ['1', '2', '3', 's', '4', '?']) {
+      await t.press(k);
+      expectFits(t.frame(), columns, rows);
+    }
+  });
+
+  it('a window smaller than usable shows a clear note instead of the views', async () => {
+    const t = start({ columns: 60, rows: 20 });
+    await settle();
+    const f = t.frame();
+    expect(f).toContain('Make the window larger');
+    expect(f).not.toContain('IVC');
+    expectFits(f, 60, 20);
+  });
+
+  it('without colour the frame carries no escape codes', async () => {
+    const t = start({ columns: 80, rows: 24 }, false);
+    await settle();
+    expect(t.app.lastFrame()).not.toMatch(/\u001b\[/);
+  });
+});
