@@ -76,6 +76,16 @@ export function teachingLine(m: Moment): string {
       now = `Suction drops the valve-end pressure (${dp}); the expansion runs to the open end and comes back as a compression`;
     else if (wave === 'compression') now = `A compression wave has come back to the valve (${dp}) and pushes air in`;
     else now = 'Air flows in past the open valve; the pressure at the valve is near ambient';
+  } else if (ahead(m.events.ivc, m.crank) <= 10) {
+    const what =
+      wave === 'compression'
+        ? `with a compression at the valve (${dp}): the wave packed extra charge in`
+        : wave === 'expansion'
+          ? `on an expansion (${dp}): the wave cost charge`
+          : 'near ambient pressure: the wave did little either way';
+    now = `The intake valve has just closed ${what}`;
+  } else if (ahead(m.crank, m.events.ivo) <= 10) {
+    now = `The intake valve is about to open; the valve end is ${wave === 'near' ? 'near ambient' : `${wave === 'compression' ? 'above' : 'below'} ambient (${dp})`}`;
   } else {
     const at =
       wave === 'compression'

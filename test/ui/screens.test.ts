@@ -239,12 +239,15 @@ describe('teaching line', () => {
     [{ lift: 0.008, valvePressure: AMBIENT - 8000, valveFlow: 0.05 }, 90, 'comes back as a compression'],
     [{ lift: 0.008, valveFlow: -0.01 }, 200, 'back out'],
     [{ valvePressure: AMBIENT + 3000 }, 300, 'Intake valve shut'],
+    [{ valvePressure: AMBIENT + 3000 }, 235, 'has just closed with a compression'],
+    [{ valvePressure: AMBIENT - 3000 }, 235, 'on an expansion'],
+    [{ valvePressure: AMBIENT - 3000 }, 695, 'about to open'],
   ] as const)('%j at %i° says %j', (over, crank, words) => {
     expect(at(crank, over)).toContain(words);
   });
 
   it('fits two lines at 80 columns in every situation above', () => {
-    for (const crank of [10, 90, 220, 300, 705]) {
+    for (const crank of [10, 90, 220, 235, 300, 695, 705]) {
       for (const over of [{ lift: 0.005, exhaustLift: 0.001, valveFlow: -1 }, { lift: 0.003, valvePressure: AMBIENT - 55500 }, { valvePressure: AMBIENT + 55500 }]) {
         const lines = wrapWords(at(crank, over), 80, 3);
         expect(lines.length).toBeLessThanOrEqual(2);
