@@ -58,23 +58,17 @@ export function chunkSpeeds(rpms: readonly number[], size = SWEEP_CHUNK_POINTS):
 }
 
 /**
- * Run one chunk: the first speed cold, each next one warm-started from the
- * previous converged state. `onPoint` is called after each point.
+ * The points of one chunk, one at a time: the first speed cold, each next
+ * one warm-started from the previous converged state.
  */
-export function runChunk(
-  model: EngineModel,
-  rpms: readonly number[],
-  assumptions: Partial<OutputAssumptions> = {},
-  onPoint?: (point: SweepPoint) => void,
-): SweepPoint[] {
-  const out: SweepPoint[] = [];
+export function* chunkPoints(model: EngineModel, rpms: readonly number[], assumptions: Partial<OutputAssumptions> = {}): Generator<SweepPoint> {
   let warm: WarmStart | undefined;
   for (const rpm of rpms) {
     const m: EngineModel = { ...model, rpm };
     const { result, warmStart } = simulatePoint(m, warm ? { warmStart: warm, mapPoints: 2 } : { mapPoints: 2 });
     warm = warmStart;
     const est = outputEstimate(result.volumetricEfficiency, result.referenceMass, rpm, assumptions);
-    const point: SweepPoint = {
+    yield {
       rpm,
       volumetricEfficiency: result.volumetricEfficiency,
       torque: est.torque,
@@ -89,6 +83,18 @@ export function runChunk(
       peakReverseFlow: result.peakReverseFlow,
       pulse: pulseTiming(result, m),
     };
+  }
+}
+
+/** Run one chunk whole (see chunkPoints); `onPoint` is called after each point. */
+export function runChunk(
+  model: EngineModel,
+  rpms: readonly number[],
+  assumptions: Partial<OutputAssumptions> = {},
+  onPoint?: (point: SweepPoint) => void,
+): SweepPoint[] {
+  const out: SweepPoint[] = [];
+  for (const point of chunkPoints(model, rpms, assumptions)) {
     out.push(point);
     onPoint?.(point);
   }

@@ -3,11 +3,15 @@
  *
  * The sweep is cut into the same fixed chunks as the serial run (sweep.ts:
  * chunkSpeeds), and each chunk runs whole on one thread, cold first point,
- * warm after. Chunks are handed out in ascending speed order (slow speeds
- * cost the most steps per cycle, so they go first) to whichever worker is
- * free. The numbers therefore do not depend on the job count: `--jobs 1`
- * and `--jobs 8` give identical results. With one job (or one chunk) no
- * thread is started.
+ * warm after. The numbers therefore do not depend on the job count:
+ * `--jobs 1` and `--jobs 8` give identical results.
+ *
+ * With N jobs, N − 1 worker threads are started and this thread is the N-th
+ * (a worker costs a start-up and its own compiler warm-up). Workers take
+ * chunks from the slow end (low speeds cost the most steps per cycle), two
+ * in flight each so they never wait for this thread; this thread takes
+ * chunks from the fast end and yields between points to answer them. With
+ * one job (or one chunk) no thread is started.
  *
  * Starting the worker, in the three ways the code is run:
  *   - .ts source (vitest, tsx): Node 20 cannot start a .ts worker, so the
@@ -20,8 +24,12 @@
  *     workerData carries SWEEP_WORKER_FLAG. On that thread process.argv[1]
  *     is '[worker eval]', so an entry check that compares argv[1] with the
  *     bundle's path does not start the command line; an entry that runs
- *     unconditionally must check isMainThread (or isSweepWorker()).
+ *     unconditionally must check isMainThread (or isSweepWorker()). If the
+ *     build also bundles src/analysis/worker.ts alone as WORKER_BUNDLE
+ *     beside the main bundle, that small file is started instead (it loads
+ *     in about a third of the time: no terminal-view code to parse).
  */
+import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
@@ -29,8 +37,11 @@ import { Worker } from 'node:worker_threads';
 import { SimulationError } from '../core/index.js';
 import type { EngineModel } from '../core/model.js';
 import type { OutputAssumptions } from './estimates.js';
-import { chunkSpeeds, runChunk, type SweepPoint } from './sweep.js';
+import { chunkPoints, chunkSpeeds, runChunk, type SweepPoint } from './sweep.js';
 import { SWEEP_WORKER_FLAG, type ChunkJob, type ChunkReply } from './worker.js';
+
+/** file name of an optional worker-only bundle next to the main bundle */
+export const WORKER_BUNDLE = 'sweep-worker.mjs';
 
 export interface ParallelSweepOptions {
   /** worker threads to use (default: the number of cores) */
@@ -66,14 +77,18 @@ function startWorker(): Worker {
     }
     case 'compiled':
       return new Worker(new URL('./worker.js', here), { workerData });
-    case 'bundle':
-      // an eval bootstrap, so the worker's process.argv[1] is '[worker eval]',
+    case 'bundle': {
+      // a small worker-only bundle beside the main one starts fastest, when the build makes it
+      const small = new URL(`./${WORKER_BUNDLE}`, here);
+      if (existsSync(small)) return new Worker(small, { workerData });
+      // else the main bundle itself, through an eval bootstrap, so the worker's process.argv[1] is '[worker eval]',
       // not the bundle: the bundle's "am I the entry script?" check stays false
       // and only worker.ts (bundled in) acts, on SWEEP_WORKER_FLAG
       return new Worker(`import(${JSON.stringify(here)}).catch((e) => { console.error(e); process.exit(1); });`, {
         eval: true,
         workerData,
       });
+    }
   }
 }
 
@@ -129,44 +144,73 @@ export async function runSweeps(tasks: readonly SweepTask[], options: ParallelSw
     return gather();
   }
 
+  // jobs − 1 workers take chunks from the slow (low-speed) end, two in flight
+  // each so a worker never waits for this thread; this thread works from the
+  // fast end, yielding between points so the workers' messages get answered
   const workers: Worker[] = [];
-  let next = 0;
+  let front = 0;
+  let back = chunks.length - 1;
   let finished = 0;
+  let failure: Error | undefined;
+  let resolveAll: () => void = () => {};
+  let rejectAll: (e: Error) => void = () => {};
+  const allDone = new Promise<void>((res, rej) => {
+    resolveAll = res;
+    rejectAll = rej;
+  });
+  allDone.catch(() => {}); // awaited below; this only keeps an early failure from being "unhandled"
+  const fail = (e: Error): void => {
+    if (failure) return;
+    failure = e;
+    rejectAll(e);
+  };
+  const complete = (id: number, points: SweepPoint[]): void => {
+    results[id] = points;
+    finished++;
+    if (finished === chunks.length) resolveAll();
+  };
+  const feed = (w: Worker): void => {
+    if (failure || front > back) return;
+    const id = front++;
+    const c = chunks[id]!;
+    const job: ChunkJob = { id, model: tasks[c.task]!.model, rpms: c.rpms, assumptions };
+    w.postMessage(job);
+  };
   try {
-    await new Promise<void>((resolve, reject) => {
-      let failed = false;
-      const fail = (e: Error): void => {
-        if (failed) return;
-        failed = true;
-        reject(e);
-      };
-      const feed = (w: Worker): void => {
-        if (failed || next >= chunks.length) return;
-        const id = next++;
-        const c = chunks[id]!;
-        const job: ChunkJob = { id, model: tasks[c.task]!.model, rpms: c.rpms, assumptions };
-        w.postMessage(job);
-      };
-      for (let i = 0; i < jobs; i++) {
-        const w = startWorker();
-        workers.push(w);
-        w.on('message', (msg: ChunkReply) => {
-          if ('progress' in msg) tick(msg.progress);
-          else if ('error' in msg) fail(rebuildError(msg.error));
-          else {
-            results[msg.id] = msg.points;
-            finished++;
-            if (finished === chunks.length) resolve();
-            else feed(w);
-          }
-        });
-        w.on('error', (e) => fail(new Error(`sweep worker failed: ${e instanceof Error ? e.message : String(e)}`)));
-        w.on('exit', (code) => {
-          if (finished < chunks.length) fail(new Error(`sweep worker stopped early (exit code ${code})`));
-        });
-        feed(w);
+    for (let i = 0; i < jobs - 1; i++) {
+      const w = startWorker();
+      workers.push(w);
+      w.on('message', (msg: ChunkReply) => {
+        if ('progress' in msg) tick(msg.progress);
+        else if ('error' in msg) fail(rebuildError(msg.error));
+        else {
+          complete(msg.id, msg.points);
+          feed(w);
+        }
+      });
+      w.on('error', (e) => fail(new Error(`sweep worker failed: ${e instanceof Error ? e.message : String(e)}`)));
+      w.on('exit', (code) => {
+        if (finished < chunks.length) fail(new Error(`sweep worker stopped early (exit code ${code})`));
+      });
+      feed(w);
+    }
+    for (const w of workers) if (back - front + 1 > jobs) feed(w);
+    while (!failure && front <= back) {
+      const id = back--;
+      const c = chunks[id]!;
+      const points: SweepPoint[] = [];
+      for (const p of chunkPoints(tasks[c.task]!.model, c.rpms, assumptions)) {
+        points.push(p);
+        tick(p.rpm);
+        await new Promise<void>((r) => setImmediate(r));
+        if (failure) break;
       }
-    });
+      if (!failure) complete(id, points);
+    }
+    await allDone;
+  } catch (e) {
+    fail(e instanceof Error ? e : new Error(String(e)));
+    throw e;
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }

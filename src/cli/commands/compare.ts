@@ -89,7 +89,7 @@ examples
       return 0;
     }
     const [fileA, fileB] = expectPositionals(args, ['A.yaml', 'B.yaml'], 'compare');
-    const csv = csvAndJsonChoice(args);
+    const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
     const a = await loadForSweep(fileA!, args, io);
     const b = await loadForSweep(fileB!, args, io);

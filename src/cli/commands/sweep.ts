@@ -5,6 +5,8 @@
  * Also the pieces `tune` and `compare` share: speed range and band from the
  * options or the case, --jobs, progress on stderr, the curve chart.
  */
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import * as asciichart from 'asciichart';
 import { caseEstimates, DEFAULT_OUTPUT_ASSUMPTIONS, type CaseEstimates, type OutputAssumptions } from '../../analysis/estimates.js';
@@ -360,10 +362,16 @@ export function sweepCsv(points: readonly SweepPoint[]): string {
   return [head.join(','), ...rows].join('\n') + '\n';
 }
 
-export function csvAndJsonChoice(args: ParsedArgs): string | undefined {
+/**
+ * --csv FILE or --json (not both). An existing FILE without --force is refused
+ * here, before any simulation runs (the atomic write checks again at the end).
+ */
+export function csvAndJsonChoice(args: ParsedArgs, io: CliIo): string | undefined {
   const csv = args.string('csv');
   if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
   if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
+  if (csv !== undefined && !args.flag('force') && existsSync(resolve(io.cwd, csv)))
+    throw new CaseError('--csv', `'${csv}' already exists; add --force to overwrite it`, 'option');
   return csv;
 }
 
@@ -443,7 +451,7 @@ examples
       return 0;
     }
     const [file] = expectPositionals(args, ['CASE'], 'sweep');
-    const csv = csvAndJsonChoice(args);
+    const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
     const loaded = await loadForSweep(file!, args, io);
     const grid = sweepGrid(args, loaded.case);

@@ -209,7 +209,7 @@ examples
       return 0;
     }
     const [file] = expectPositionals(args, ['CASE'], 'tune');
-    const csv = csvAndJsonChoice(args);
+    const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
     const varyTexts = args.list('vary');
     if (varyTexts.length === 0) throw new CaseError('--vary', 'needed: what to vary, e.g. --vary runner.length=250mm:450mm:50mm', 'option');
