@@ -36,9 +36,9 @@
  *                   0° = at a compression peak, 90° = falling through p_ref,
  *                   180° = at an expansion trough, 270° = rising through p_ref.
  *   effect          'helping' when p at IVC is above p_ref by more than
- *                   `neutralBand` (fraction of p_ref), 'costing' when below by
- *                   more than that, else 'neutral'. The verdict follows from
- *                   these numbers only.
+ *                   `neutralBand` (fraction of p_ref, default 2 %), 'costing'
+ *                   when below by more than that, else 'neutral'. The verdict
+ *                   follows from these numbers only.
  */
 import type { EngineModel, PointResult } from '../core/model.js';
 import { quarterWaveFrequency, endCorrection } from './estimates.js';
@@ -117,7 +117,7 @@ export interface PulseTiming {
 export interface PulseOptions {
   /** smallest rise above p_ref that counts as a compression peak, fraction of p_ref (default 0.003) */
   minPeakAmplitude?: number;
-  /** |p_IVC − p_ref| below this fraction of p_ref is 'neutral' (default 0.01) */
+  /** |p_IVC − p_ref| up to this fraction of p_ref is 'neutral' (default 0.02) */
   neutralBand?: number;
   /** open-end correction kind for the quarter-wave frequency (default unflanged) */
   flanged?: boolean;
@@ -267,7 +267,7 @@ function fmtDeg(d: number): string {
  */
 export function pulseTiming(result: PointResult, model?: EngineModel, options: PulseOptions = {}): PulseTiming {
   const minPeak = options.minPeakAmplitude ?? 0.003;
-  const neutral = options.neutralBand ?? 0.01;
+  const neutral = options.neutralBand ?? 0.02;
   const N = result.rpm;
   const L = result.runnerLength;
   const a = result.meanSoundSpeed;
@@ -378,10 +378,10 @@ export function pulseTiming(result: PointResult, model?: EngineModel, options: P
     }
   } else if (effect === 'costing') {
     verdict = `the valve closes on an expansion (${atClose}): the wave is costing charge`;
-    if (before) verdict += `; the last compression peak came ${fmtDeg(before.offsetFromIvc)} before closing`;
+    if (before) verdict += `; the last compression peak (${fmtKpa(before.pressureAboveReference)}) came ${fmtDeg(before.offsetFromIvc)} before closing`;
   } else {
-    verdict = `the valve closes near the ${referenceKind === 'ambient' ? 'ambient' : 'plenum'} pressure (${atClose}): the wave neither helps nor costs much`;
-    if (before) verdict += `; the last compression peak came ${fmtDeg(before.offsetFromIvc)} before closing`;
+    verdict = `the valve closes near the ${referenceKind === 'ambient' ? 'ambient' : 'plenum'} pressure (${atClose}): the wave neither helps nor costs much at closing`;
+    if (before) verdict += `; the last compression peak (${fmtKpa(before.pressureAboveReference)}) came ${fmtDeg(before.offsetFromIvc)} before closing`;
   }
   const dIvo = atIvo.pressureAboveReference;
   const ivoPhase = `ringing phase ${Math.round(atIvo.ringingPhase) % 360}°`;

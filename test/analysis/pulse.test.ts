@@ -142,10 +142,12 @@ describe('verdict follows from the numbers', () => {
     expect(p.verdict).toContain('arrives late');
   });
 
-  it('small swing: neutral', () => {
+  it('small swing: neutral (within 2 % of the reference), a tighter band makes it count', () => {
     const p = pulseTiming(fakeResult(ring(226, 100, 600)));
     expect(p.effect).toBe('neutral');
     expect(p.verdict).toContain('neither helps nor costs');
+    // 600·cos(50.4°) = 383 Pa at IVC: above a 0.1 % band (101 Pa), below a 2 % band (2 kPa)
+    expect(pulseTiming(fakeResult(ring(226, 100, 600)), undefined, { neutralBand: 0.001, minPeakAmplitude: 0.001 }).effect).toBe('helping');
   });
 
   it.each([[2000], [6000], [12000]])('the same trace gives the same effect at %d rpm (no fixed speed ranges)', (rpm) => {

@@ -10,6 +10,7 @@ import { runSweep } from '../../src/analysis/worker-pool.js';
 import { loadCase } from '../../src/case/load.js';
 import { runCli } from '../../src/cli/main.js';
 import { memoryIo } from '../../src/cli/io.js';
+import { SimulationError } from '../../src/core/index.js';
 
 const ROOT = fileURLToPath(new URL('../..', import.meta.url));
 const DEMO = 'cases/demo.yaml';
@@ -111,5 +112,31 @@ describe('sweep and tune agree', () => {
     // the other design differs: the figure really depends on the design
     const other = tune.designs.find((d) => d !== same)!;
     expect(other.meanVolumetricEfficiency).not.toBe(sweep.band.meanVolumetricEfficiency);
+  });
+});
+
+describe('failures and progress', () => {
+  it.each([[1], [2]])('a point the core refuses fails the whole sweep with the core error (--jobs %d)', async (jobs) => {
+    // rpm −1 sits in the first chunk, which a worker takes when jobs > 1
+    const m = await demo();
+    const rpms = [-1, 6000, 6500, 7000, 9000];
+    const err = await runSweep(m, rpms, { jobs }).then(
+      () => undefined,
+      (e: unknown) => e,
+    );
+    expect(err).toBeInstanceOf(SimulationError);
+    expect((err as SimulationError).code).toBe('invalid');
+    expect((err as Error).message).toMatch(/rpm must be positive/);
+  });
+
+  it('shows progress on stderr only when it is a terminal', async () => {
+    const argv = ['sweep', DEMO, '--rpm', '6000:7000:500', '--set', COARSE, '--jobs', '1'];
+    const tty = memoryIo({ cwd: ROOT, stderrIsTTY: true });
+    expect(await runCli(argv, tty)).toBe(0);
+    expect(tty.err()).toMatch(/sweep: 3\/3 points/);
+    expect(tty.err()).toContain('\r\x1b[K');
+    const pipe = memoryIo({ cwd: ROOT });
+    expect(await runCli(argv, pipe)).toBe(0);
+    expect(pipe.err()).not.toMatch(/points/);
   });
 });

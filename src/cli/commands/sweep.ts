@@ -507,6 +507,8 @@ examples
         ' (area under the curve / band width: the band average, not the peak, is the figure of merit)',
     );
     out.push(`best ηv ${fix(summary.bestVolumetricEfficiency * 100, 1)} % at ${fix(summary.bestRpm, 0)} rpm`);
+    const bestPoint = points.find((p) => p.rpm === summary.bestRpm);
+    if (bestPoint) out.push(`why, at ${fix(bestPoint.rpm, 0)} rpm: ${bestPoint.pulse.verdict}`);
     out.push('hand estimates beside the simulation:');
     out.push(...estimateLines(estimates, summary.bestRpm));
     io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n\n');

@@ -324,6 +324,8 @@ examples
           ) +
           '\n',
       );
+      const atPeak = best.points.find((p) => p.rpm === best.peakRpm);
+      if (atPeak) io.stdout.write(wrapLine(`why, at its peak: ${atPeak.pulse.verdict}`) + '\n');
       const peakiest = [...ranked].sort((x, y) => y.peakVolumetricEfficiency - x.peakVolumetricEfficiency)[0];
       if (peakiest && peakiest !== best)
         io.stdout.write(
