@@ -54,6 +54,7 @@ export function App(props: AppProps): React.JSX.Element {
     () =>
       initialState({
         values: session.values,
+        fields: session.fields,
         sweepPlan: session.sweepPlan,
         suggestedSavePath: '',
         ...(props.teach !== undefined ? { teach: props.teach } : {}),

@@ -37,20 +37,11 @@ export interface ResultNumbers {
 
 export function caseScreen(i: CaseScreenInput): string[] {
   const w = i.width;
-  const lines: string[] = [];
-  lines.push(firstFit([`Case: ${i.name}  (${i.file})`, `Case: ${i.name}`], w));
+  const title = firstFit([`Case: ${i.name}  (${i.file})`, `Case: ${i.name}`], w);
   const labelW = Math.max(...i.fields.map((f) => f.label.length), 10);
-  i.fields.forEach((f, k) => {
-    const v = i.values[f.path];
-    const sel = k === i.selected;
-    const shown = sel && i.editing !== undefined ? `${i.editing}▌` : v !== undefined ? formatField(f, v) : '—';
-    const was = i.baseValues?.[f.path];
-    const change = was !== undefined && v !== undefined && formatField(f, was) !== formatField(f, v) ? `(baseline ${formatField(f, was)})` : '';
-    const row = `${sel ? '▶' : ' '} ${f.label.padEnd(labelW)}  ${shown.padStart(9)} ${f.unit.padEnd(7)} ${change}`;
-    lines.push(fit(row, w));
-  });
   const sel = i.fields[i.selected];
-  lines.push(fit('', w));
+
+  const below: string[] = [fit('', w)];
   if (i.save) {
     const prompt =
       i.save.stage === 'confirm'
@@ -58,19 +49,19 @@ export function caseScreen(i: CaseScreenInput): string[] {
         : i.save.stage === 'typing'
           ? `Save the changed case as: ${i.save.path}▌   (enter saves, esc cancels)`
           : `Saving to ${i.save.path} …`;
-    lines.push(...wrapWords(prompt, w, 2));
+    below.push(...wrapWords(prompt, w, 2));
   } else if (i.editing !== undefined && sel) {
-    lines.push(fit(`Type the new ${sel.label.toLowerCase()} in ${sel.unit}; enter runs it, esc keeps the old value.`, w));
+    below.push(...wrapWords(`Type the new ${sel.label.toLowerCase()} in ${sel.unit}; enter runs it, esc keeps the old value.`, w, 2));
   } else if (sel) {
-    lines.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it, w saves.`, w, 2));
+    below.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it, w saves.`, w, 2));
   }
-  lines.push(fit('', w));
+  below.push(fit('', w));
   const r = i.result;
   if (r) {
     const b = i.baseline;
     const d = b ? ` (baseline ${b.volumetricEfficiency.toFixed(3)}, ${signed((r.volumetricEfficiency / b.volumetricEfficiency - 1) * 100)} %)` : '';
-    lines.push(fit(`${i.running ? 'Running… last result' : 'Result'}: volumetric efficiency ηv ${r.volumetricEfficiency.toFixed(3)}${d}`, w));
-    lines.push(
+    below.push(fit(`${i.running ? 'Running… last result' : 'Result'}: volumetric efficiency ηv ${r.volumetricEfficiency.toFixed(3)}${d}`, w));
+    below.push(
       joinFit(
         [
           `trapped ${mg(r.trappedMass)} mg`,
@@ -82,11 +73,33 @@ export function caseScreen(i: CaseScreenInput): string[] {
         ' · ',
       ),
     );
-    if (b && i.baselineLabel) lines.push(fit(`Baseline: ${i.baselineLabel}`, w));
+    if (b && i.baselineLabel) below.push(fit(`Baseline: ${i.baselineLabel}`, w));
   } else {
-    lines.push(fit(i.running ? 'Running the point…' : 'No result yet.', w));
+    below.push(fit(i.running ? 'Running the point…' : 'No result yet.', w));
   }
-  return padLines(lines, i.rows, w);
+
+  // the list scrolls to keep the selected value in view
+  const room = Math.max(1, i.rows - 1 - below.length);
+  const first = listWindow(i.fields.length, room, i.selected);
+  const shown = i.fields.slice(first, first + room);
+  const rows = shown.map((f, k) => {
+    const index = first + k;
+    const v = i.values[f.path];
+    const isSel = index === i.selected;
+    const value = isSel && i.editing !== undefined ? `${i.editing}▌` : v !== undefined ? formatField(f, v) : '—';
+    const was = i.baseValues?.[f.path];
+    const change = was !== undefined && v !== undefined && formatField(f, was) !== formatField(f, v) ? `(baseline ${formatField(f, was)})` : '';
+    const more = k === 0 && first > 0 ? '↑' : k === shown.length - 1 && first + room < i.fields.length ? '↓' : ' ';
+    return fit(`${isSel ? '▶' : more} ${f.label.padEnd(labelW)}  ${value.padStart(9)} ${f.unit.padEnd(7)} ${change}`, w);
+  });
+  return padLines([title, ...rows, ...below], i.rows, w);
+}
+
+/** The first index of a window of `room` items out of `count` that shows `selected`, centred when it can be. */
+export function listWindow(count: number, room: number, selected: number): number {
+  if (count <= room) return 0;
+  const centred = selected - Math.floor(room / 2);
+  return Math.max(0, Math.min(count - room, centred));
 }
 
 function signed(v: number): string {

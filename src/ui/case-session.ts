@@ -7,7 +7,7 @@
 import { basename } from 'node:path';
 import type { EngineModel } from '../core/model.js';
 import { buildCase, loadCase, UNITS, type LoadedCase } from '../case/index.js';
-import { FIELDS } from './fields.js';
+import { FIELDS, sectionFields, type FieldDef } from './fields.js';
 import { fileExists, saveEditedCase, suggestSavePath } from './save.js';
 import type { Edit } from './state.js';
 
@@ -20,7 +20,9 @@ export interface CaseSession {
   /** the case file (absolute) */
   file: string;
   name: string;
-  /** field values in display units (see fields.ts), for the fields this case has */
+  /** the fields this case has, in the panel's order */
+  fields: FieldDef[];
+  /** field values in display units (see fields.ts) */
   values: Record<string, number>;
   sweepPlan: SweepPlan;
   /** the model with the edits applied; throws the case loader's CaseError on a bad value */
@@ -66,8 +68,8 @@ export function sweepPlanOf(loaded: LoadedCase): SweepPlan {
   return plan;
 }
 
-/** The panel's values of a loaded case, in display units. */
-export function fieldValues(loaded: LoadedCase): Record<string, number> {
+/** The panel's fields of a loaded case and their values, in display units. */
+export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: Record<string, number> } {
   const c = loaded.case;
   const raw = loaded.data as { runner?: Record<string, unknown> };
   const plainRunner = raw.runner !== undefined && 'length' in raw.runner && !('sections' in raw.runner);
@@ -83,12 +85,25 @@ export function fieldValues(loaded: LoadedCase): Record<string, number> {
     'ambient.pressure': c.ambient.pressure,
     'ambient.temperature': c.ambient.temperature,
   };
-  const out: Record<string, number> = {};
-  for (const f of FIELDS) {
+  const sections = plainRunner ? [] : sectionFields(c.runner.sections.length);
+  c.runner.sections.forEach((sec, i) => {
+    if (plainRunner) return;
+    si[`runner.sections.${i}.length`] = sec.length;
+    si[`runner.sections.${i}.diameterStart`] = sec.diameterStart;
+    si[`runner.sections.${i}.diameterEnd`] = sec.diameterEnd;
+  });
+  // the runner's sections take the place of its length and diameter
+  const at = FIELDS.findIndex((f) => f.path === 'runner.length');
+  const ordered = [...FIELDS.slice(0, at), ...sections, ...FIELDS.slice(at)];
+  const fields: FieldDef[] = [];
+  const values: Record<string, number> = {};
+  for (const f of ordered) {
     const v = si[f.path];
-    if (v !== undefined) out[f.path] = toDisplay(v, f.unitWord);
+    if (v === undefined) continue;
+    fields.push(f);
+    values[f.path] = toDisplay(v, f.unitWord);
   }
-  return out;
+  return { fields, values };
 }
 
 function setsOf(edits: readonly Edit[]): string[] {
@@ -101,7 +116,7 @@ export async function openCase(file: string): Promise<CaseSession> {
   return {
     file,
     name: loaded.model.name || basename(file),
-    values: fieldValues(loaded),
+    ...fieldValues(loaded),
     sweepPlan: sweepPlanOf(loaded),
     build: (edits) => buildCase(structuredClone(raw), file, { set: setsOf(edits) }).model,
     suggestSavePath: () => suggestSavePath(file),

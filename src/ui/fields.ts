@@ -113,8 +113,51 @@ export const FIELDS: readonly FieldDef[] = [
   },
 ];
 
-export function fieldByPath(path: string): FieldDef | undefined {
-  return FIELDS.find((f) => f.path === path);
+/**
+ * The fields of a runner given as sections (upstream end first): each
+ * section's length and its start and end diameters.
+ */
+export function sectionFields(count: number): FieldDef[] {
+  const out: FieldDef[] = [];
+  for (let i = 0; i < count; i++) {
+    const n = i + 1;
+    const base = `runner.sections.${i}`;
+    const where = i === 0 ? ' (open end)' : i === count - 1 ? ' (valve end)' : '';
+    out.push(
+      {
+        path: `${base}.length`,
+        label: `Section ${n} length`,
+        unit: 'mm',
+        unitWord: 'mm',
+        step: 10,
+        decimals: 0,
+        hint: `runner section ${n}${where}; a longer runner tunes to a lower speed`,
+      },
+      {
+        path: `${base}.diameterStart`,
+        label: `Section ${n} start dia.`,
+        unit: 'mm',
+        unitWord: 'mm',
+        step: 1,
+        decimals: 1,
+        hint: `diameter where section ${n} begins (the end nearer the open end)`,
+      },
+      {
+        path: `${base}.diameterEnd`,
+        label: `Section ${n} end dia.`,
+        unit: 'mm',
+        unitWord: 'mm',
+        step: 1,
+        decimals: 1,
+        hint: `diameter where section ${n} ends (the end nearer the valve)`,
+      },
+    );
+  }
+  return out;
+}
+
+export function fieldByPath(path: string, fields: readonly FieldDef[] = FIELDS): FieldDef | undefined {
+  return fields.find((f) => f.path === path);
 }
 
 /** The override text for a value typed in display units, e.g. "320 mm". */

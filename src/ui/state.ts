@@ -154,17 +154,15 @@ export type Action =
 export interface InitOptions {
   /** field values in display units, from the case */
   values: Record<string, number>;
-  /** field paths this case supports */
-  fieldPaths?: readonly string[];
+  /** the fields this case has, in order (default: those of FIELDS with a value) */
+  fields?: readonly FieldDef[];
   sweepPlan: { rpms: number[]; band: { from: number; to: number } };
   suggestedSavePath: string;
   teach?: boolean;
 }
 
 export function initialState(o: InitOptions): UiState {
-  const fields = FIELDS.filter(
-    (f) => (o.fieldPaths ? o.fieldPaths.includes(f.path) : true) && o.values[f.path] !== undefined,
-  );
+  const fields = (o.fields ?? FIELDS).filter((f) => o.values[f.path] !== undefined);
   return {
     view: 'valve',
     crank: 0,

@@ -30,7 +30,19 @@ function start(size = { columns: 80, rows: 24 }, color = false) {
       await settle();
     }
   };
-  return { app, session, engine, frame, press };
+  /** wait until the frame shows `text` (the first point, a re-run), at most 3 s */
+  const until = async (text: string | RegExp): Promise<void> => {
+    for (let k = 0; k < 100; k++) {
+      const f = frame();
+      if (typeof text === 'string' ? f.includes(text) : text.test(f)) return;
+      await settle(30);
+    }
+  };
+  /** wait until a condition holds, at most 3 s */
+  const untilTrue = async (cond: () => boolean): Promise<void> => {
+    for (let k = 0; k < 100 && !cond(); k++) await settle(30);
+  };
+  return { app, session, engine, frame, press, until, untilTrue };
 }
 
 function expectFits(frame: string, columns: number, rows: number): void {
@@ -46,7 +58,7 @@ afterEach(() => {
 describe('the terminal view', () => {
   it('first frame shows IVO/IVC on the crank axis and a crank readout', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     const f = t.frame();
     expect(f).toContain('IVO');
     expect(f).toContain('IVC');
@@ -59,7 +71,7 @@ describe('the terminal view', () => {
 
   it('→ moves the cursor and changes the readout', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     const before = t.frame().split('\n')[1];
     await t.press(RIGHT, RIGHT, RIGHT, RIGHT, RIGHT);
     const f = t.frame();
@@ -69,7 +81,7 @@ describe('the terminal view', () => {
 
   it('? shows the help with every key, "quit" and the safety caution; esc closes it', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     await t.press('?');
     const f = t.frame();
     expect(f).toContain('quit');
@@ -83,7 +95,7 @@ describe('the terminal view', () => {
 
   it('tab cycles the views', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     const seen: string[] = [];
     for (let k = 0; k < 4; k++) {
       await t.press(TAB);
@@ -94,9 +106,10 @@ describe('the terminal view', () => {
 
   it('an edit in the case view re-runs the point and shows the old result as the baseline', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     await t.press('4', DOWN, ENTER, '4', '2', '0', ENTER);
-    await settle(80);
+    await t.untilTrue(() => t.engine.runs.length === 2);
+    await t.until('(baseline 300)');
     expect(t.engine.runs).toHaveLength(2);
     expect(t.engine.runs[1]?.runner.sections[0]?.length).toBeCloseTo(0.42, 12);
     let f = t.frame();
@@ -111,21 +124,21 @@ describe('the terminal view', () => {
 
   it('+ and - change the engine speed and re-run', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     await t.press('+');
-    await settle(60);
+    await t.untilTrue(() => t.engine.runs.length === 2);
     expect(t.frame()).toContain('6250 rpm');
     expect(t.engine.runs.at(-1)?.rpm).toBe(6250);
     await t.press('-', '-');
-    await settle(60);
+    await t.untilTrue(() => t.engine.runs.at(-1)?.rpm === 5750);
     expect(t.engine.runs.at(-1)?.rpm).toBe(5750);
   });
 
   it('runs the sweep in the background and shows the band mean and best speed', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     await t.press('3', 's');
-    await settle(150);
+    await t.until(/mean ηv \d/);
     const f = t.frame();
     expect(f).toContain('7 points');
     expect(f).toMatch(/mean ηv \d\.\d{3}/);
@@ -135,21 +148,21 @@ describe('the terminal view', () => {
 
   it('saves to a new name, and asks before overwriting an existing file', async () => {
     const t = start();
-    await settle();
+    await t.until('IVC');
     await t.press('w');
     expect(t.frame()).toContain('/cases/synthetic-3.yaml');
     await t.press(ENTER);
-    await settle(80);
+    await t.until('Saved to');
     expect(t.session.saved).toEqual([{ edits: [], path: '/cases/synthetic-3.yaml', overwrite: false }]);
     expect(t.frame()).toContain('Saved to /cases/synthetic-3.yaml');
     // now type the name of a file that exists
     await t.press('w');
     await t.press(...Array.from({ length: 6 }, () => BACKSPACE), '2.yaml', ENTER);
-    await settle(80);
+    await t.until('already exists');
     expect(t.frame()).toContain('/cases/synthetic-2.yaml already exists. Overwrite it?');
     expect(t.session.saved).toHaveLength(1);
     await t.press('y');
-    await settle(80);
+    await t.until('Saved to /cases/synthetic-2.yaml');
     expect(t.session.saved[1]).toEqual({ edits: [], path: '/cases/synthetic-2.yaml', overwrite: true });
   });
 
@@ -159,7 +172,7 @@ describe('the terminal view', () => {
     [120, 40],
   ])('at %i × %i no line is wider than the terminal in any view (colour on, ANSI stripped)', async (columns, rows) => {
     const t = start({ columns, rows }, true);
-    await settle();
+    await t.until('IVC');
     for (const k of ['1', '2', '3', 's', '4', '?']) {
       await t.press(k);
       expectFits(t.frame(), columns, rows);
@@ -177,7 +190,7 @@ describe('the terminal view', () => {
 
   it('without colour the frame carries no escape codes', async () => {
     const t = start({ columns: 80, rows: 24 }, false);
-    await settle();
+    await t.until('IVC');
     expect(t.app.lastFrame()).not.toMatch(/\u001b\[/);
   });
 });

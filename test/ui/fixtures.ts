@@ -10,6 +10,7 @@ import type { WarmStart } from '../../src/core/engine.js';
 import type { CaseSession } from '../../src/ui/case-session.js';
 import type { EngineService, PointOutcome, SweepCallbacks, SweepHandle } from '../../src/ui/engine-service.js';
 import type { Edit } from '../../src/ui/state.js';
+import { FIELDS } from '../../src/ui/fields.js';
 
 export const AMBIENT = 101325;
 export const EVENTS = { ivo: 700, ivc: 230, evo: 490, evc: 20 };
@@ -153,6 +154,7 @@ export function fakeSession(): FakeSession {
   return {
     file: '/cases/synthetic.yaml',
     name: 'Synthetic single',
+    fields: FIELDS.filter((f) => START_VALUES[f.path] !== undefined),
     values: { ...START_VALUES },
     sweepPlan: { rpms: [3000, 4000, 5000, 6000, 7000, 8000, 9000], band: { from: 5000, to: 8000 } },
     build(edits) {

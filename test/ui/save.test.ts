@@ -92,8 +92,9 @@ describe('case session', () => {
   it('shows the demo values in display units and builds the model with edits', async () => {
     const session = await openCase(demo);
     const loaded = await loadCase(demo);
-    const v = fieldValues(loaded);
+    const { values: v, fields } = fieldValues(loaded);
     expect(session.values).toEqual(v);
+    expect(fields.map((f) => f.path)).toContain('runner.length');
     expect(v['runner.length']).toBeCloseTo((loaded.model.runner.sections[0]?.length ?? 0) * 1000, 9);
     expect(v['ambient.temperature']).toBeCloseTo(loaded.model.ambient.temperature - 273.15, 9);
     expect(v['ambient.pressure']).toBeCloseTo(loaded.model.ambient.pressure / 1000, 9);
@@ -101,6 +102,25 @@ describe('case session', () => {
     const m = session.build([{ path: 'runner.length', value: '333 mm' }, { path: 'ambient.temperature', value: '30 degC' }]);
     expect(m.runner.sections[0]?.length).toBeCloseTo(0.333, 12);
     expect(m.ambient.temperature).toBeCloseTo(303.15, 9);
+  });
+
+  it('offers each section of a runner given in sections, edits it, and saves it', async () => {
+    const kart = join(dir, 'kart.yaml');
+    await copyFile(new URL('../../cases/kart-single.yaml', import.meta.url), kart);
+    const session = await openCase(kart);
+    const paths = session.fields.map((f) => f.path);
+    expect(paths).not.toContain('runner.length');
+    expect(paths).toContain('runner.sections.1.length');
+    expect(paths).toContain('runner.sections.0.diameterStart');
+    const loaded = await loadCase(kart);
+    expect(session.values['runner.sections.1.length']).toBeCloseTo((loaded.model.runner.sections[1]?.length ?? 0) * 1000, 9);
+    const edit = [{ path: 'runner.sections.1.length', value: '300 mm' }];
+    expect(session.build(edit).runner.sections[1]?.length).toBeCloseTo(0.3, 12);
+    const target = join(dir, 'kart-2.yaml');
+    await session.save(edit, target, false);
+    const again = await loadCase(target);
+    expect(again.model.runner.sections[1]?.length).toBeCloseTo(0.3, 12);
+    expect(again.model.runner.sections).toHaveLength(loaded.model.runner.sections.length);
   });
 
   it('reports a bad edit with the field path', async () => {

@@ -6,9 +6,9 @@ import { describe, expect, it } from 'vitest';
 import { valveScreen } from '../../src/ui/valve-screen.js';
 import { runnerScreen } from '../../src/ui/runner-screen.js';
 import { curveColumns, curveStats, sweepScreen } from '../../src/ui/sweep-screen.js';
-import { caseScreen } from '../../src/ui/case-screen.js';
+import { caseScreen, listWindow } from '../../src/ui/case-screen.js';
 import { headerLine, helpLines, keyHints, tooSmall, tooSmallLines } from '../../src/ui/frame-screen.js';
-import { FIELDS } from '../../src/ui/fields.js';
+import { FIELDS, sectionFields } from '../../src/ui/fields.js';
 import { teachingLine, strokeOf } from '../../src/ui/teach.js';
 import { wrapWords, fit } from '../../src/ui/text.js';
 import { AMBIENT, EVENTS, START_VALUES, syntheticResult } from './fixtures.js';
@@ -269,5 +269,28 @@ describe('text helpers', () => {
     const cut = wrapWords('one two three four five six', 9, 2);
     expect(cut).toHaveLength(2);
     expect(cut[1]?.trimEnd().endsWith('…')).toBe(true);
+  });
+});
+
+describe('case view with a runner in sections', () => {
+  const fields = [...FIELDS.slice(0, 1), ...sectionFields(3), ...FIELDS.slice(4)];
+  const values: Record<string, number> = {};
+  for (const f of fields) values[f.path] = 10;
+  const common = { width: 80, rows: 18, name: 'S', file: 'f', fields, values, running: false };
+
+  it.each([0, 5, 9, fields.length - 1])('keeps selected value %i in view when the list is longer than the room', (selected) => {
+    const lines = caseScreen({ ...common, selected });
+    widthOk(lines, 80, 18);
+    const label = fields[selected]?.label ?? '';
+    expect(lines.some((l) => l.startsWith(`▶ ${label}`))).toBe(true);
+  });
+
+  it.each([
+    [5, 10, 0, 0],
+    [20, 10, 0, 0],
+    [20, 10, 12, 7],
+    [20, 10, 19, 10],
+  ])('a list of %i in %i rows with %i selected starts at %i', (count, room, selected, first) => {
+    expect(listWindow(count, room, selected)).toBe(first);
   });
 });
