@@ -140,3 +140,18 @@ describe('failures and progress', () => {
     expect(pipe.err()).not.toMatch(/points/);
   });
 });
+
+import { workerLayout } from '../../src/analysis/worker-pool.js';
+
+describe('how the sweep worker is started', () => {
+  it.each([
+    ['file:///x/src/analysis/worker-pool.ts', 'source'],
+    ['file:///x/dist/analysis/worker-pool.js', 'compiled'],
+    ['file:///x/dist/tractwave.mjs', 'bundle'],
+  ] as const)('%s → %s', (url, layout) => {
+    expect(workerLayout(url)).toBe(layout);
+  });
+  it('this test runs the source layout', () => {
+    expect(workerLayout()).toBe('source');
+  });
+});
