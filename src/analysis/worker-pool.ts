@@ -14,9 +14,12 @@
  * one job (or one chunk) no thread is started.
  *
  * Starting the worker, in the three ways the code is run:
- *   - .ts source (vitest, tsx): Node 20 cannot start a .ts worker, so the
- *     worker is an eval bootstrap that registers tsx's ESM loader (resolved
- *     from this package's node_modules) and then imports worker.ts;
+ *   - .ts source (vitest, tsx): Node 20 cannot start a .ts worker. The
+ *     worker and its imports are bundled once in memory with esbuild (a
+ *     development dependency, there whenever the sources run) and started as
+ *     an eval script; without esbuild, an eval bootstrap registers tsx's ESM
+ *     loader in the worker and imports worker.ts (slower: every worker
+ *     transforms the sources again);
  *   - compiled (dist/analysis/worker-pool.js): new Worker(dist/analysis/worker.js);
  *   - single-file bundle (dist/tractwave.mjs): every module shares the
  *     bundle's import.meta.url, so the worker imports the bundle itself,
@@ -32,7 +35,7 @@
 import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { SimulationError } from '../core/index.js';
 import type { EngineModel } from '../core/model.js';
@@ -62,18 +65,50 @@ export function workerLayout(moduleUrl: string = import.meta.url): 'source' | 'c
   return 'bundle';
 }
 
+let workerSource: string | null | undefined;
+
+/**
+ * worker.ts and its imports as one CommonJS script (source layout only),
+ * built once per process; undefined when esbuild is not at hand.
+ */
+function bundledWorkerSource(here: string): string | undefined {
+  if (workerSource === undefined) {
+    try {
+      const esbuild = createRequire(here)('esbuild') as typeof import('esbuild');
+      const out = esbuild.buildSync({
+        entryPoints: [fileURLToPath(new URL('./worker.ts', here))],
+        bundle: true,
+        platform: 'node',
+        format: 'cjs',
+        target: 'node20',
+        write: false,
+        logLevel: 'silent',
+      });
+      workerSource = out.outputFiles[0]?.text ?? null;
+    } catch {
+      workerSource = null;
+    }
+  }
+  return workerSource ?? undefined;
+}
+
 function startWorker(): Worker {
   const here = import.meta.url;
   const workerData = { [SWEEP_WORKER_FLAG]: true };
   switch (workerLayout(here)) {
     case 'source': {
-      // tsx's ESM API: require.resolve finds its CommonJS twin beside it
+      // fastest: the worker and what it imports, bundled once in memory by
+      // esbuild (present wherever the .ts sources run) and started as plain JS
+      const code = bundledWorkerSource(here);
+      if (code !== undefined) return new Worker(code, { eval: true, workerData });
+      // else register tsx's ESM API in the worker (require.resolve finds its
+      // CommonJS twin beside it) and import worker.ts
       const tsxApi = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
       const target = new URL('./worker.ts', here).href;
-      const code =
+      const boot =
         `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); })` +
         `.catch((e) => { console.error(e); process.exit(1); });`;
-      return new Worker(code, { eval: true, workerData });
+      return new Worker(boot, { eval: true, workerData });
     }
     case 'compiled':
       return new Worker(new URL('./worker.js', here), { workerData });
