@@ -1,4 +1,5 @@
-// Single-file ESM bundle of the command line: dist/tractwave.mjs.
+// Single-file ESM bundles: the command line (dist/tractwave.mjs) and the
+// sweep worker (dist/sweep-worker.mjs).
 // Start-up matters over SSH: one file parses faster than hundreds of modules.
 // See STACK.md: platform node, format esm, NODE_ENV=production, a
 // createRequire banner (for CommonJS dependencies that call require), and
@@ -28,9 +29,7 @@ const stubs = {
   },
 };
 
-await build({
-  entryPoints: [join(root, 'src/cli/main.ts')],
-  outfile: join(root, 'dist/tractwave.mjs'),
+const common = {
   bundle: true,
   platform: 'node',
   format: 'esm',
@@ -41,4 +40,9 @@ await build({
   jsx: 'automatic',
   legalComments: 'none',
   logLevel: 'warning',
-});
+};
+
+await build({ ...common, entryPoints: [join(root, 'src/cli/main.ts')], outfile: join(root, 'dist/tractwave.mjs') });
+// The sweep worker on its own (physics and case loading only, no Ink): a
+// worker thread loads it in tens of milliseconds instead of the whole CLI.
+await build({ ...common, entryPoints: [join(root, 'src/analysis/worker.ts')], outfile: join(root, 'dist/sweep-worker.mjs') });
