@@ -4,8 +4,8 @@
  * background, the play timer, saving — and passes plain numbers to the
  * display-only views.
  */
-import React, { useEffect, useReducer, useRef } from 'react';
-import { Box, useApp, useInput, useStdin } from 'ink';
+import React, { useCallback, useEffect, useReducer, useRef } from 'react';
+import { Box, useApp, useInput, useStdin, type Key } from 'ink';
 import type { WarmStart } from '../core/engine.js';
 import type { EngineModel } from '../core/model.js';
 import { windowStart } from './chart.js';
@@ -67,12 +67,8 @@ export function App(props: AppProps): React.JSX.Element {
   const color = props.color ?? colorWanted();
   const warm = useRef<WarmStart | undefined>(undefined);
 
-  useInput(
-    (input, key) => {
-      dispatch({ type: 'key', input, key });
-    },
-    { isActive: isRawModeSupported === true },
-  );
+  const onKey = useCallback((input: string, key: Key) => dispatch({ type: 'key', input, key }), []);
+  useInput(onKey, { isActive: isRawModeSupported === true });
 
   // the first name offered for saving
   useEffect(() => {

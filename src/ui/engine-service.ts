@@ -155,73 +155,116 @@ export interface ThreadEngineOptions {
   sweepJobs?: number;
 }
 
-/** Points on a worker of our own, sweeps on the analysis module's workers. */
-export function threadEngine(options: ThreadEngineOptions = {}): EngineService & { onThread: () => boolean } {
+/**
+ * Points on a worker of our own, sweeps on the analysis module's workers.
+ * The point worker starts at once; until it is up (seconds under tsx, a
+ * fraction of a second compiled) points run on this thread. Sweep threads
+ * are kept between sweeps; stopping a sweep ends the threads still busy
+ * with it.
+ */
+export function threadEngine(
+  options: ThreadEngineOptions = {},
+): EngineService & { onThread: () => boolean; whenReady: () => Promise<boolean> } {
   const inline = inlineEngine();
   let pointWorker: Worker | undefined;
-  let ready: Promise<boolean> | undefined;
+  let up = false;
   let broken = false;
   let nextId = 0;
   const pending = new Map<number, { resolve: (o: PointOutcome) => void; reject: (e: Error) => void }>();
-  const sweepThreads = new Set<Worker>();
 
   const failAll = (e: Error): void => {
     for (const p of pending.values()) p.reject(e);
     pending.clear();
   };
 
-  const ensureWorker = (): Promise<boolean> => {
-    if (broken) return Promise.resolve(false);
-    if (ready) return ready;
-    ready = new Promise<boolean>((resolve) => {
-      let w: Worker;
-      try {
-        w = startWorker('./worker', UI_WORKER_FLAG);
-      } catch {
-        broken = true;
-        resolve(false);
+  let signalReady: (ok: boolean) => void = () => undefined;
+  let readyPromise = Promise.resolve(false);
+  const startPointWorker = (): void => {
+    if (broken || pointWorker) return;
+    readyPromise = new Promise<boolean>((r) => (signalReady = r));
+    let w: Worker;
+    try {
+      w = startWorker('./worker', UI_WORKER_FLAG);
+    } catch {
+      broken = true;
+      signalReady(false);
+      return;
+    }
+    pointWorker = w;
+    let served = false;
+    w.on('message', (msg: PointReply) => {
+      if ('ready' in msg) {
+        served = true;
+        up = true;
+        signalReady(true);
         return;
       }
-      pointWorker = w;
-      let up = false;
-      w.on('message', (msg: PointReply) => {
-        if ('ready' in msg) {
-          up = true;
-          resolve(true);
-          return;
-        }
-        const p = pending.get(msg.id);
-        if (!p) return;
-        pending.delete(msg.id);
-        try {
-          p.resolve(replyToOutcome(msg));
-        } catch (e) {
-          p.reject(e instanceof Error ? e : new Error(String(e)));
-        }
-      });
-      const down = (why: string): void => {
-        pointWorker = undefined;
-        ready = undefined;
-        if (!up) {
-          // it never served: run points on this thread from now on
-          broken = true;
-          resolve(false);
-        }
-        failAll(new RunError(`the simulation thread stopped (${why})`, false));
-      };
-      w.on('error', (e) => down(e instanceof Error ? e.message : String(e)));
-      w.on('exit', (code) => down(`exit code ${code}`));
+      const p = pending.get(msg.id);
+      if (!p) return;
+      pending.delete(msg.id);
+      try {
+        p.resolve(replyToOutcome(msg));
+      } catch (e) {
+        p.reject(e instanceof Error ? e : new Error(String(e)));
+      }
     });
-    return ready;
+    let gone = false;
+    const down = (why: string): void => {
+      if (gone) return;
+      gone = true;
+      pointWorker = undefined;
+      up = false;
+      // one that never served will not: run points on this thread from now on
+      if (!served) broken = true;
+      signalReady(false);
+      failAll(new RunError(`the simulation thread stopped (${why})`, false));
+    };
+    w.on('error', (e) => down(e instanceof Error ? e.message : String(e)));
+    w.on('exit', (code) => down(`exit code ${code}`));
+  };
+  startPointWorker();
+
+  // sweep threads: idle ones wait for the next sweep
+  const idle: Worker[] = [];
+  const allSweep = new Set<Worker>();
+  const handlers = new Map<Worker, (msg: ChunkReply | { crashed: string }) => void>();
+  const acquire = (): Worker => {
+    const reuse = idle.pop();
+    if (reuse) return reuse;
+    const w = startWorker('../analysis/worker', SWEEP_WORKER_FLAG);
+    allSweep.add(w);
+    w.on('message', (msg: ChunkReply) => handlers.get(w)?.(msg));
+    const crash = (why: string): void => {
+      allSweep.delete(w);
+      const k = idle.indexOf(w);
+      if (k >= 0) idle.splice(k, 1);
+      handlers.get(w)?.({ crashed: why });
+      handlers.delete(w);
+    };
+    w.on('error', (e) => crash(`sweep thread failed: ${e instanceof Error ? e.message : String(e)}`));
+    w.on('exit', (code) => crash(`sweep thread stopped early (exit code ${code})`));
+    return w;
+  };
+  const release = (w: Worker): void => {
+    handlers.delete(w);
+    if (allSweep.has(w)) idle.push(w);
+  };
+  const kill = (w: Worker): void => {
+    handlers.delete(w);
+    allSweep.delete(w);
+    void w.terminate();
   };
 
   let served = false;
   return {
-    /** whether the last point ran on the worker thread (false: it fell back to this thread) */
+    /** whether the last point ran on the worker thread (false: on this thread) */
     onThread: () => served,
+    /** resolves when the point worker is up (true) or cannot be (false) */
+    whenReady: () => readyPromise,
 
     async runPoint(model, warmStart) {
-      if (!(await ensureWorker()) || !pointWorker) {
+      if (!up || !pointWorker) {
+        startPointWorker();
         served = false;
         return inline.runPoint(model, warmStart);
       }
@@ -238,77 +281,80 @@ export function threadEngine(options: ThreadEngineOptions = {}): EngineService &
     runSweep(model, rpms, cb) {
       const chunks = chunkSpeeds(rpms);
       const jobs = Math.max(1, Math.min(options.sweepJobs ?? Math.min(4, availableParallelism() - 1), chunks.length));
-      const threads: Worker[] = [];
-      let cancelled = false;
+      const mine = new Set<Worker>();
+      const busy = new Set<Worker>();
+      let over = false;
       let next = 0;
       let finished = 0;
-      let fallback: SweepHandle | undefined;
       const offsets: number[] = [];
       chunks.reduce((at, c) => (offsets.push(at), at + c.length), 0);
-      const stop = (): void => {
-        cancelled = true;
-        for (const t of threads) {
-          sweepThreads.delete(t);
-          void t.terminate();
+      const end = (): void => {
+        over = true;
+        for (const w of mine) {
+          if (busy.has(w)) kill(w);
+          else release(w);
         }
+        mine.clear();
+        busy.clear();
       };
       const fail = (message: string): void => {
-        if (cancelled) return;
-        stop();
+        if (over) return;
+        end();
         cb.onError(message);
       };
       const feed = (w: Worker): void => {
-        if (cancelled || next >= chunks.length) return;
+        if (over) return;
+        if (next >= chunks.length) {
+          busy.delete(w);
+          return;
+        }
         const id = next++;
         const job: ChunkJob = { id, model, rpms: chunks[id] ?? [], assumptions: {} };
+        busy.add(w);
         w.postMessage(job);
       };
+      let fallback: SweepHandle | undefined;
       for (let k = 0; k < jobs; k++) {
         let w: Worker;
         try {
-          w = startWorker('../analysis/worker', SWEEP_WORKER_FLAG);
+          w = acquire();
         } catch {
-          stop();
-          cancelled = false;
-          fallback = inline.runSweep(model, rpms, cb);
+          if (mine.size === 0) fallback = inline.runSweep(model, rpms, cb);
           break;
         }
-        threads.push(w);
-        sweepThreads.add(w);
-        w.on('message', (msg: ChunkReply) => {
-          if (cancelled) return;
+        mine.add(w);
+        handlers.set(w, (msg) => {
+          if (over) return;
+          if ('crashed' in msg) return fail(msg.crashed);
           if ('progress' in msg) return;
-          if ('error' in msg) {
-            fail(msg.error.name === 'SimulationError' ? `The sweep diverged: ${msg.error.message}` : msg.error.message);
-            return;
-          }
+          if ('error' in msg) return fail(msg.error.name === 'SimulationError' ? `The sweep diverged: ${msg.error.message}` : msg.error.message);
           const at = offsets[msg.id] ?? 0;
           msg.points.forEach((p, j) => cb.onPoint(at + j, p.volumetricEfficiency, p.converged));
           finished++;
+          busy.delete(w);
           if (finished === chunks.length) {
-            stop();
+            end();
             cb.onDone();
           } else feed(w);
-        });
-        w.on('error', (e) => fail(`sweep thread failed: ${e instanceof Error ? e.message : String(e)}`));
-        w.on('exit', (code) => {
-          if (!cancelled && finished < chunks.length) fail(`sweep thread stopped early (exit code ${code})`);
         });
         feed(w);
       }
       return {
         cancel() {
           fallback?.cancel();
-          stop();
+          end();
         },
       };
     },
 
     async close() {
-      const all = [...sweepThreads];
-      sweepThreads.clear();
+      const all = [...allSweep];
+      allSweep.clear();
+      idle.length = 0;
+      handlers.clear();
       const w = pointWorker;
       pointWorker = undefined;
+      broken = true;
       failAll(new RunError('closed', false));
       await Promise.all([...all.map((t) => t.terminate()), w ? w.terminate() : Promise.resolve(0)]);
     },

@@ -38,7 +38,7 @@ export function headerLine(o: {
 }): string {
   const tabs = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : ` ${k + 1} ${VIEW_TITLES[v]} `)).join('');
   const tabsShort = VIEWS.map((v) => (v === o.view ? `[${VIEW_TITLES[v]}]` : ` ${VIEW_TITLES[v]} `)).join('');
-  const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${o.running ? '  ⟳' : ''}`;
+  const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${o.running ? ' · running' : ''}`;
   const right = '? help';
   const attempts: [string, boolean][] = [
     [tabs, true],

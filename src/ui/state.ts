@@ -253,6 +253,17 @@ function applyValue(s: UiState, field: FieldDef, value: number): UiState {
   return changed;
 }
 
+/** The design a sweep curve belongs to: its changes from the case file, speed aside. */
+export function designLabel(s: UiState): string {
+  const design = s.edits.filter((e) => e.path !== 'rpm');
+  if (design.length === 0) return 'as loaded';
+  const last = design[design.length - 1] as Edit;
+  const f = fieldByPath(last.path, s.fields);
+  const v = s.values[last.path];
+  const words = f && v !== undefined ? describeEdit(f, v) : `${last.path} ${last.value}`;
+  return design.length > 1 ? `${words} (+${design.length - 1} more)` : words;
+}
+
 function startSweep(s: UiState): UiState {
   const keepAsBaseline = s.sweep && s.sweep.eta.some((v) => v !== null) ? s.sweep : s.sweepBaseline;
   return {
@@ -263,7 +274,7 @@ function startSweep(s: UiState): UiState {
       rpms: [...s.sweepPlan.rpms],
       eta: s.sweepPlan.rpms.map(() => null),
       converged: s.sweepPlan.rpms.map(() => null),
-      label: s.request.label,
+      label: designLabel(s),
     },
     sweepBaseline: keepAsBaseline,
     sweepEdits: s.edits,

@@ -36,6 +36,7 @@ describe('the engine service on the real core', () => {
     const model = session.build([]);
     const threads = threadEngine({ sweepJobs: 2 });
     engines.push(threads);
+    expect(await threads.whenReady()).toBe(true);
     const [viaWorker, here] = await Promise.all([threads.runPoint(model), inlineEngine().runPoint(model)]);
     expect(threads.onThread()).toBe(true);
     expect(viaWorker.result.trace.valvePressure).toHaveLength(720);
@@ -62,6 +63,13 @@ describe('the engine service on the real core', () => {
     });
     const serial = runSweepSerial(model, rpms).map((p) => p.volumetricEfficiency);
     expect(got).toEqual(serial);
+
+    // the kept threads run the next sweep to the same numbers
+    const again = new Array<number>(rpms.length).fill(Number.NaN);
+    await new Promise<void>((resolve, reject) => {
+      threads.runSweep(model, rpms, { onPoint: (i, eta) => (again[i] = eta), onDone: resolve, onError: (m) => reject(new Error(m)) });
+    });
+    expect(again).toEqual(serial);
 
     // a stopped sweep reports nothing more
     let after = 0;

@@ -241,6 +241,8 @@ describe('the sweep', () => {
     expect(s.sweepStatus).toBe('running');
     expect(s.sweepRequest).toBe(id + 1);
     expect(s.sweepBaseline?.eta).toEqual([0.9, 1.0, 0.95]);
+    expect(s.sweepBaseline?.label).toBe('as loaded');
+    expect(s.sweep?.label).toBe('runner length 310 mm');
     expect(s.sweep?.eta).toEqual([null, null, null]);
     // a point from the old sweep is ignored
     expect(reduce(s, { type: 'sweepPoint', id, index: 0, eta: 2, converged: true }).sweep?.eta[0]).toBeNull();
