@@ -16,9 +16,14 @@
  *   - .ts source (vitest, tsx): an eval bootstrap registers tsx's ESM loader
  *     and imports the .ts module;
  *   - compiled (dist/ui/engine-service.js): the .js file beside it;
- *   - single-file bundle: the bundle itself, with the worker's flag in
- *     workerData (the bundle must load the worker module on such a thread).
+ *   - single-file bundle: the compiled module beside the bundle
+ *     (dist/ui/worker.js, dist/analysis/worker.js, which `npm run build`
+ *     leaves there), else the bundle itself with the worker's flag in
+ *     workerData. The bundle serves sweep chunks that way; it serves points
+ *     only if its entry loads ui/worker.js on such a thread, else the point
+ *     worker exits unused and points run on this thread.
  */
+import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
@@ -124,23 +129,30 @@ export function workerLayout(moduleUrl: string = import.meta.url): Layout {
   return 'bundle';
 }
 
-/** Start a worker for a module given as a path relative to this file, without suffix. */
-function startWorker(relative: string, flag: string): Worker {
+/**
+ * Start a worker for a module of src/ (e.g. 'ui/worker'), in whichever
+ * layout this file runs: the .ts source through tsx, the compiled .js
+ * beside it, or, from the single-file bundle, the compiled module next to
+ * the bundle when the build left it there, else the bundle itself.
+ */
+function startWorker(module: string, flag: string): Worker {
   const here = import.meta.url;
   const workerData = { [flag]: true };
   switch (workerLayout(here)) {
     case 'source': {
       const tsxApi = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
-      const target = new URL(`${relative}.ts`, here).href;
+      const target = new URL(`../${module}.ts`, here).href;
       const code =
         `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); })` +
         `.catch((e) => { console.error(e); process.exit(1); });`;
       return quiet(new Worker(code, { eval: true, workerData, stderr: true }));
     }
     case 'compiled':
-      return quiet(new Worker(new URL(`${relative}.js`, here), { workerData, stderr: true }));
-    case 'bundle':
-      return quiet(new Worker(new URL(here), { workerData, stderr: true }));
+      return quiet(new Worker(new URL(`../${module}.js`, here), { workerData, stderr: true }));
+    case 'bundle': {
+      const beside = new URL(`./${module}.js`, here);
+      return quiet(new Worker(existsSync(beside) ? beside : new URL(here), { workerData, stderr: true }));
+    }
   }
 }
 
@@ -184,7 +196,7 @@ export function threadEngine(
     readyPromise = new Promise<boolean>((r) => (signalReady = r));
     let w: Worker;
     try {
-      w = startWorker('./worker', UI_WORKER_FLAG);
+      w = startWorker('ui/worker', UI_WORKER_FLAG);
     } catch {
       broken = true;
       signalReady(false);
@@ -231,7 +243,7 @@ export function threadEngine(
   const acquire = (): Worker => {
     const reuse = idle.pop();
     if (reuse) return reuse;
-    const w = startWorker('../analysis/worker', SWEEP_WORKER_FLAG);
+    const w = startWorker('analysis/worker', SWEEP_WORKER_FLAG);
     allSweep.add(w);
     w.on('message', (msg: ChunkReply) => handlers.get(w)?.(msg));
     const crash = (why: string): void => {
