@@ -11,22 +11,26 @@
  * event loop between points; tests use it, and the thread engine falls back
  * to it when a worker cannot be started.
  *
- * Starting a worker in the three ways the code is run (see also
- * analysis/worker-pool.ts):
- *   - .ts source (vitest, tsx): an eval bootstrap registers tsx's ESM loader
- *     and imports the .ts module;
- *   - compiled (dist/ui/engine-service.js): the .js file beside it;
- *   - single-file bundle: the compiled module beside the bundle
- *     (dist/ui/worker.js, dist/analysis/worker.js, which `npm run build`
- *     leaves there), else the bundle itself with the worker's flag in
- *     workerData. The bundle serves sweep chunks that way; it serves points
- *     only if its entry loads ui/worker.js on such a thread, else the point
- *     worker exits unused and points run on this thread.
+ * Starting a worker in the three ways the code is run (as the analysis
+ * module's worker pool does):
+ *   - .ts source (vitest, tsx): the worker module and its imports bundled
+ *     once in memory by esbuild and started as an eval script; without
+ *     esbuild, an eval bootstrap registers tsx's ESM loader and imports the
+ *     .ts module (slower);
+ *   - compiled (dist/ui/engine-service.js): the .js module beside it;
+ *   - single-file bundle: a worker-only bundle beside it (WORKER_BUNDLES:
+ *     dist/point-worker.mjs, dist/sweep-worker.mjs) when the build makes
+ *     one, else the compiled module beside it (dist/ui/worker.js,
+ *     dist/analysis/worker.js, left by the tsc step of the build), else the
+ *     bundle itself with the worker's flag in workerData. The bundle serves
+ *     sweep chunks that way; it serves points only if its entry loads
+ *     ui/worker.js, else that worker exits unused and points run on this
+ *     thread.
  */
 import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { WarmStart } from '../core/engine.js';
 import type { EngineModel, PointResult } from '../core/model.js';
@@ -129,29 +133,65 @@ export function workerLayout(moduleUrl: string = import.meta.url): Layout {
   return 'bundle';
 }
 
+/** Worker-only bundles the build may leave beside the main bundle, by module. */
+export const WORKER_BUNDLES: Readonly<Record<string, string>> = {
+  'ui/worker': 'point-worker.mjs',
+  'analysis/worker': 'sweep-worker.mjs',
+};
+
+const bundledSources = new Map<string, string | null>();
+
+/** A module of src/ and its imports as one CommonJS script, built once in memory by esbuild (source layout). */
+function bundledSource(module: string, here: string): string | undefined {
+  if (!bundledSources.has(module)) {
+    try {
+      const esbuild = createRequire(here)('esbuild') as typeof import('esbuild');
+      const out = esbuild.buildSync({
+        entryPoints: [fileURLToPath(new URL(`../${module}.ts`, here))],
+        bundle: true,
+        platform: 'node',
+        format: 'cjs',
+        target: 'node20',
+        write: false,
+        logLevel: 'silent',
+      });
+      bundledSources.set(module, out.outputFiles[0]?.text ?? null);
+    } catch {
+      bundledSources.set(module, null);
+    }
+  }
+  return bundledSources.get(module) ?? undefined;
+}
+
 /**
  * Start a worker for a module of src/ (e.g. 'ui/worker'), in whichever
- * layout this file runs: the .ts source through tsx, the compiled .js
- * beside it, or, from the single-file bundle, the compiled module next to
- * the bundle when the build left it there, else the bundle itself.
+ * layout this file runs (see the file header).
  */
 function startWorker(module: string, flag: string): Worker {
   const here = import.meta.url;
   const workerData = { [flag]: true };
+  const opts = { workerData, stderr: true } as const;
   switch (workerLayout(here)) {
     case 'source': {
+      const code = bundledSource(module, here);
+      if (code !== undefined) return quiet(new Worker(code, { ...opts, eval: true }));
       const tsxApi = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
       const target = new URL(`../${module}.ts`, here).href;
-      const code =
+      const boot =
         `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); })` +
         `.catch((e) => { console.error(e); process.exit(1); });`;
-      return quiet(new Worker(code, { eval: true, workerData, stderr: true }));
+      return quiet(new Worker(boot, { ...opts, eval: true }));
     }
     case 'compiled':
-      return quiet(new Worker(new URL(`../${module}.js`, here), { workerData, stderr: true }));
+      return quiet(new Worker(new URL(`../${module}.js`, here), opts));
     case 'bundle': {
-      const beside = new URL(`./${module}.js`, here);
-      return quiet(new Worker(existsSync(beside) ? beside : new URL(here), { workerData, stderr: true }));
+      const small = WORKER_BUNDLES[module];
+      for (const beside of [small ? new URL(`./${small}`, here) : undefined, new URL(`./${module}.js`, here)]) {
+        if (beside && existsSync(beside)) return quiet(new Worker(beside, opts));
+      }
+      // the main bundle itself, through an eval bootstrap so the worker's
+      // process.argv[1] is '[worker eval]' and the bundle's entry check stays false
+      return quiet(new Worker(`import(${JSON.stringify(here)}).catch((e) => { console.error(e); process.exit(1); });`, { ...opts, eval: true }));
     }
   }
 }
