@@ -7,6 +7,7 @@
  *   probe.ts engine  SCHEME MESH_M REPEATS   whole engine (simulatePoint)
  *   probe.ts growth  SCHEME MESHES CYCLES    time per cycle at each mesh ("0.016,0.008")
  *   probe.ts sweep   JOBS POINTS             speed sweep through the analysis runner
+ *   probe.ts chunks  POINTS                  CPU time per sweep chunk, two-worker bound
  *   probe.ts idle                            imports only (baseline resident size)
  *
  * Rates are node updates per second: mesh points × time steps / seconds
@@ -187,6 +188,29 @@ async function sweep(jobs: number, points: number): Promise<void> {
   });
 }
 
+/**
+ * CPU time of each sweep chunk run alone in this thread, and the makespan of
+ * handing them to two workers in order (each to whichever is free first):
+ * the speed-up the chunking allows on an idle machine, before thread start-up.
+ */
+async function chunks(points: number): Promise<void> {
+  const { chunkSpeeds, runChunk } = await import('../src/analysis/sweep.js');
+  const model = await demoModel();
+  const rpms = Array.from({ length: points }, (_, i) => 3000 + 250 * i);
+  runChunk(model, rpms.slice(0, 2)); // warm-up
+  const cpu: number[] = [];
+  for (const c of chunkSpeeds(rpms)) {
+    const t0 = process.cpuUsage();
+    runChunk(model, c);
+    const u = process.cpuUsage(t0);
+    cpu.push((u.user + u.system) / 1e6);
+  }
+  const total = cpu.reduce((a, b) => a + b, 0);
+  const busy = [0, 0];
+  for (const c of cpu) busy[busy[0]! <= busy[1]! ? 0 : 1]! += c;
+  emit({ kind: 'chunks', chunks: cpu.length, total, makespan2: Math.max(...busy), bound: total / Math.max(...busy) });
+}
+
 async function main(argv: string[]): Promise<void> {
   const [what, a, b, c] = argv;
   switch (what) {
@@ -202,6 +226,8 @@ async function main(argv: string[]): Promise<void> {
       );
     case 'sweep':
       return sweep(Math.round(num(a, 'jobs')), Math.round(num(b, 'points')));
+    case 'chunks':
+      return chunks(Math.round(num(a, 'points')));
     case 'idle':
       await demoModel();
       emit({ kind: 'idle', maxRss: maxRssBytes() });

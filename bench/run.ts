@@ -10,7 +10,8 @@
  * Timed figures are the best of a few repeats (the least disturbed by other
  * work on the machine); start-up figures are medians of 5.
  *
- * Options: --quick (fewer repeats, for trying the bench itself).
+ * Options: --quick (fewer repeats, for trying the bench itself);
+ * --only=rates|growth|sweeps|startup (one section; RESULTS.md is not written).
  */
 import { spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
@@ -28,6 +29,8 @@ const DEMO = join(ROOT, 'cases', 'demo.yaml');
 const RESULTS = join(ROOT, 'bench', 'RESULTS.md');
 
 const QUICK = process.argv.includes('--quick');
+/** --only=rates|growth|sweeps|startup: one section, for looking into it (RESULTS.md is then not written) */
+const ONLY = process.argv.find((a) => a.startsWith('--only='))?.slice(7);
 /** the fine mesh of the rate comparison [m] */
 const FINE_MESH = 0.004;
 const SCHEMES = ['characteristics', 'conservative'] as const;
@@ -189,6 +192,19 @@ function rates(tmp: string): void {
     c = cFloorRate(exe, nodes, secs);
     console.log(`  C floor (gcc -O2 ref_moc.c)    ${''.padEnd(15)} ${mega(c).padStart(11)}  (${nodes} nodes)`);
   }
+  // the same floor in TypeScript: what the language and JIT cost alone
+  const port = (() => {
+    const steps = Math.max(20000, Math.round(((c ?? 5e7) * secs) / nodes));
+    let best = 0;
+    for (let k = 0; k < 3; k++) {
+      const r = run(process.execPath, ['--import', 'tsx', join(ROOT, 'bench', 'ref-moc.ts'), String(nodes), String(steps)]);
+      const v = Number((r.stdout ?? '').trim());
+      if (r.status !== 0 || !(v > 0)) throw new Error(`bench/ref-moc.ts failed: ${r.stderr}`);
+      best = Math.max(best, v);
+    }
+    return best;
+  })();
+  console.log(`  the same floor in TypeScript (bench/ref-moc.ts) ${mega(port).padStart(11)}  (${nodes} nodes${c !== undefined ? `; C is ${(c / port).toFixed(2)}× faster: the language's share of the gap` : ''})`);
   for (const s of SCHEMES) {
     const p = pipe[s]!;
     const e = engine[s]!;
@@ -199,6 +215,9 @@ function rates(tmp: string): void {
     row('Update rate (4 mm, demo)', `${s}: whole engine`, mega(e.rate), ratioE !== undefined ? `C ${ratioE.toFixed(2)}× faster` : '');
   }
   if (c !== undefined) row('Update rate (4 mm, demo)', `C floor, ${nodes} nodes`, mega(c), 'gcc -O2, homentropic, closed ends');
+  row('Update rate (4 mm, demo)', 'the C floor ported to TypeScript', mega(port), c !== undefined ? `C ${(c / port).toFixed(2)}× faster (language and JIT alone)` : '');
+  for (const s of SCHEMES)
+    row('Update rate (4 mm, demo)', `${s}: work per node vs the floor`, `${(port / pipe[s]!.rate).toFixed(2)}×`, 'TypeScript floor rate / pipe-update rate: the extra physics per node');
 
   // the shipped command line (cold process: includes JIT warm-up), for what a user sees
   if (existsSync(BUNDLE) || existsSync(join(ROOT, 'dist', 'cli', 'main.js'))) {
@@ -258,24 +277,37 @@ interface SweepProbe {
   maxRss: number;
 }
 
-/** The built CLI's sweep, in a wrapper that reports the process's peak resident size on stderr. */
-function cliSweep(jobs: number): { seconds: number; maxRss: number } | undefined {
+/**
+ * The built CLI's sweep (--json), through a small wrapper module that reports
+ * the process's peak resident size on stderr. Gives the whole process's wall
+ * time and the sweep's own wall time (stats.wallSeconds of the JSON).
+ */
+function cliSweep(jobs: number, tmp: string): { seconds: number; sweepSeconds: number; maxRss: number } | undefined {
   const entry = existsSync(BUNDLE) ? BUNDLE : join(ROOT, 'dist', 'cli', 'main.js');
   if (!existsSync(entry)) return undefined;
-  const code =
-    `const { main } = await import(${JSON.stringify(pathToFileURL(entry).href)});` +
-    `process.on('exit', () => process.stderr.write('\\nBENCH_MAXRSS ' + process.resourceUsage().maxRSS + '\\n'));` +
-    `await main(${JSON.stringify(['sweep', DEMO, '--rpm', SWEEP_RANGE, '--jobs', String(jobs), '--json'])});`;
-  const r = timeProcess(process.execPath, ['--input-type=module', '-e', code]);
+  const wrapper = join(tmp, 'cli-sweep.mjs');
+  writeFileSync(
+    wrapper,
+    `const { main } = await import(${JSON.stringify(pathToFileURL(entry).href)});\n` +
+      `process.on('exit', () => process.stderr.write('\\nBENCH_MAXRSS ' + process.resourceUsage().maxRSS + '\\n'));\n` +
+      `await main(process.argv.slice(2));\n`,
+  );
+  const r = timeProcess(process.execPath, [wrapper, 'sweep', DEMO, '--rpm', SWEEP_RANGE, '--jobs', String(jobs), '--json']);
   const m = /BENCH_MAXRSS (\d+)/.exec(r.stderr);
-  if (r.status !== 0 || !m) {
+  let sweepSeconds = Number.NaN;
+  try {
+    sweepSeconds = (JSON.parse(r.stdout) as { stats: { wallSeconds: number } }).stats.wallSeconds;
+  } catch {
+    /* reported below */
+  }
+  if (r.status !== 0 || !m || !Number.isFinite(sweepSeconds)) {
     note(`tractwave sweep --jobs ${jobs} failed (exit ${r.status}): ${r.stderr.trim().split('\n')[0]}`);
     return undefined;
   }
-  return { seconds: r.seconds, maxRss: Number(m[1]) * 1024 };
+  return { seconds: r.seconds, sweepSeconds, maxRss: Number(m[1]) * 1024 };
 }
 
-function sweeps(): void {
+function sweeps(tmp: string): void {
   heading(`Speed sweep, ${SWEEP_POINTS} points (${SWEEP_RANGE} rpm, demo case, its 10 mm mesh), 1 and 2 workers`);
   const cores = os.availableParallelism();
   if (cores < 2) note(`only ${cores} core: the 2-worker speed-up cannot be measured`);
@@ -299,12 +331,30 @@ function sweeps(): void {
   row('Sweep (30 points)', 'runSweep, 1 worker', `${one.seconds.toFixed(2)} s`, '');
   row('Sweep (30 points)', 'runSweep, 2 workers', `${two.seconds.toFixed(2)} s`, `speed-up ${speedUp.toFixed(2)} (target ≥ 1.6: ${speedUp >= 1.6 ? 'met' : 'missed'})`);
 
-  const c1 = cliSweep(1);
-  const c2 = cliSweep(2);
+  const ch = probe<{ chunks: number; total: number; makespan2: number; bound: number }>('chunks', SWEEP_POINTS);
+  console.log(
+    `  chunk work (CPU time, one thread): ${ch.chunks} chunks, ${ch.total.toFixed(2)} s in all; on two workers the longest share is ${ch.makespan2.toFixed(2)} s: ` +
+      `the chunking allows a speed-up of ${ch.bound.toFixed(2)} before thread start-up`,
+  );
+  row('Sweep (30 points)', 'work-balance bound on 2 workers', ch.bound.toFixed(2), `${ch.chunks} chunks, ${ch.total.toFixed(2)} s CPU in all`);
+  // the built command: best of two each, alternating
+  let c1: ReturnType<typeof cliSweep>;
+  let c2: ReturnType<typeof cliSweep>;
+  for (let k = 0; k < (QUICK ? 1 : 2); k++) {
+    const a = cliSweep(1, tmp);
+    const b = cliSweep(2, tmp);
+    if (a && (!c1 || a.sweepSeconds < c1.sweepSeconds)) c1 = { ...a, maxRss: Math.max(a.maxRss, c1?.maxRss ?? 0) };
+    if (b && (!c2 || b.sweepSeconds < c2.sweepSeconds)) c2 = { ...b, maxRss: Math.max(b.maxRss, c2?.maxRss ?? 0) };
+  }
   if (c1 && c2) {
-    const su = c1.seconds / c2.seconds;
-    console.log(`  tractwave sweep (whole command): --jobs 1 ${c1.seconds.toFixed(2)} s, --jobs 2 ${c2.seconds.toFixed(2)} s, speed-up ${su.toFixed(2)}`);
-    row('Sweep (30 points)', '`tractwave sweep`, --jobs 1 / 2', `${c1.seconds.toFixed(2)} s / ${c2.seconds.toFixed(2)} s`, `speed-up ${su.toFixed(2)} (whole process)`);
+    const su = c1.sweepSeconds / c2.sweepSeconds;
+    const suP = c1.seconds / c2.seconds;
+    console.log(
+      `  tractwave sweep --json: sweep ${c1.sweepSeconds.toFixed(2)} s on 1 job, ${c2.sweepSeconds.toFixed(2)} s on 2 (speed-up ${su.toFixed(2)}); ` +
+        `whole command ${c1.seconds.toFixed(2)} s / ${c2.seconds.toFixed(2)} s (speed-up ${suP.toFixed(2)})`,
+    );
+    row('Sweep (30 points)', '`tractwave sweep`, --jobs 1 / 2', `${c1.sweepSeconds.toFixed(2)} s / ${c2.sweepSeconds.toFixed(2)} s`, `speed-up ${su.toFixed(2)} (target ≥ 1.6: ${su >= 1.6 ? 'met' : 'missed'})`);
+    row('Sweep (30 points)', '`tractwave sweep`, whole process, 1 / 2', `${c1.seconds.toFixed(2)} s / ${c2.seconds.toFixed(2)} s`, `speed-up ${suP.toFixed(2)} (start-up included)`);
   }
 
   heading('Memory: peak resident size (maxRSS)');
@@ -489,18 +539,21 @@ async function main(): Promise<void> {
     note('dist/tractwave.mjs is older than src/: the command-line figures are for the last build (npm run build)');
   const tmp = mkdtempSync(join(os.tmpdir(), 'tractwave-bench-'));
   try {
-    rates(tmp);
-    growth();
-    sweeps();
-    await startup();
+    if (!ONLY || ONLY === 'rates') rates(tmp);
+    if (!ONLY || ONLY === 'growth') growth();
+    if (!ONLY || ONLY === 'sweeps') sweeps(tmp);
+    if (!ONLY || ONLY === 'startup') await startup();
   } finally {
     rmSync(tmp, { recursive: true, force: true });
   }
   const seconds = (performance.now() - t0) / 1000;
   heading(`Summary (${machine()}; ${date})`);
   for (const l of table()) console.log(l);
-  writeResults(date, load, seconds);
-  console.log(`\nwrote ${RESULTS} (bench took ${seconds.toFixed(0)} s)`);
+  if (ONLY) console.log(`\n--only=${ONLY}: ${RESULTS} not written (bench took ${seconds.toFixed(0)} s)`);
+  else {
+    writeResults(date, load, seconds);
+    console.log(`\nwrote ${RESULTS} (bench took ${seconds.toFixed(0)} s)`);
+  }
 }
 
 await main();
