@@ -314,6 +314,9 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
   );
 }
 
+/** |mass imbalance| per cycle above which the status line warns [-] */
+export const MASS_WARNING = 0.005;
+
 export function statusLine(s: UiState, w: number): string {
   if (s.message) return fit(s.message.text, w);
   const r = s.point?.result;
@@ -328,6 +331,8 @@ export function statusLine(s: UiState, w: number): string {
     }
     parts.push(`trapped ${mg(r.trappedMass)} mg`);
     parts.push(r.converged ? `${r.cycles} cycles` : `NOT converged in ${r.cycles} cycles`);
+    // the solver's own mass balance: above 0.5 % the figures are suspect
+    if (Math.abs(r.massImbalance) > MASS_WARNING) parts.push(`mass balance off ${(r.massImbalance * 100).toFixed(1)} %!`);
   }
   if (s.playing) parts.push(`playing ${playRate(s)}°/s`);
   return joinFit(parts, w, ' · ');
