@@ -6,7 +6,7 @@
  *   probe.ts pipe    SCHEME MESH_M SECONDS   pure pipe update, closed ends
  *   probe.ts engine  SCHEME MESH_M REPEATS   whole engine (simulatePoint)
  *   probe.ts growth  SCHEME MESHES CYCLES    time per cycle at each mesh ("0.016,0.008")
- *   probe.ts sweep   JOBS POINTS             speed sweep through the analysis runner
+ *   probe.ts sweep   JOBS POINTS [MESH_M]    speed sweep through the analysis runner (default: the demo's mesh)
  *   probe.ts chunks  POINTS                  CPU time per sweep chunk, two-worker bound
  *   probe.ts idle                            imports only (baseline resident size)
  *
@@ -111,7 +111,7 @@ function warmUp(model: EngineModel, seconds: number): void {
   while (performance.now() - start < seconds * 1000);
 }
 
-/** Whole-engine rate: nodes × steps / wall time of simulatePoint on the demo, best of `repeats` after a warm-up run. */
+/** Whole-engine rate: nodes × steps / wall time of simulatePoint on the demo, the best run after a warm-up. */
 async function engineRate(name: SchemeName, meshSize: number, repeats: number): Promise<void> {
   const model = await demoModel({ meshSize, scheme: name });
   warmUp(model, 0.6);
@@ -121,7 +121,9 @@ async function engineRate(name: SchemeName, meshSize: number, repeats: number): 
   let cycles = 0;
   let imbalance = 0;
   let eta = 0;
-  for (let r = 0; r < repeats; r++) {
+  // at least `repeats` runs and about a second in all: one run at 4 mm takes a tenth of that
+  const start = performance.now();
+  for (let r = 0; r < repeats || performance.now() - start < 1000; r++) {
     const t0 = performance.now();
     const { result } = simulatePoint(model);
     const s = (performance.now() - t0) / 1000;
@@ -163,7 +165,7 @@ async function growth(name: SchemeName, meshes: number[], cycles: number): Promi
 }
 
 /** A speed sweep of `points` speeds from 3000 rpm in 250 rpm steps, on `jobs` workers, with the analysis runner. */
-async function sweep(jobs: number, points: number): Promise<void> {
+async function sweep(jobs: number, points: number, meshSize?: number): Promise<void> {
   let runSweep: ((m: EngineModel, rpms: readonly number[], o: { jobs: number }) => Promise<{ converged: boolean; massImbalance: number }[]>) | undefined;
   try {
     ({ runSweep } = await import('../src/analysis/worker-pool.js'));
@@ -171,7 +173,7 @@ async function sweep(jobs: number, points: number): Promise<void> {
     emit({ kind: 'sweep', missing: `src/analysis/worker-pool.ts could not be loaded (${(e as Error).message})` });
     return;
   }
-  const model = await demoModel();
+  const model = await demoModel(meshSize !== undefined ? { meshSize } : {});
   const rpms = Array.from({ length: points }, (_, i) => 3000 + 250 * i);
   const t0 = performance.now();
   const out = await runSweep(model, rpms, { jobs });
@@ -225,7 +227,7 @@ async function main(argv: string[]): Promise<void> {
         Math.round(num(c, 'cycles')),
       );
     case 'sweep':
-      return sweep(Math.round(num(a, 'jobs')), Math.round(num(b, 'points')));
+      return sweep(Math.round(num(a, 'jobs')), Math.round(num(b, 'points')), c === undefined ? undefined : num(c, 'mesh size'));
     case 'chunks':
       return chunks(Math.round(num(a, 'points')));
     case 'idle':
