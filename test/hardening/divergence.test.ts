@@ -47,7 +47,8 @@ describe.each(SCHEMES)('divergence is caught and explained (%s)', (scheme) => {
 
   it('Courant number 3: a SimulationError, not garbage', { timeout: 10_000 }, () => {
     const e = failure(model(scheme, (m) => (m.numerics.courant = 3)));
-    expect(e.message).toMatch(/courant 3\b/);
+    expect(e.message).toContain('courant');
+    expect(e.message).toMatch(/\b3\b/);
   });
 
   it.each([
