@@ -34,7 +34,22 @@ export class OpenEnd implements Boundary, Residual {
     public entryLoss = 0,
   ) {}
 
-  residual(X: number): number {
+  /** root-finder argument and value (solve.ts) */
+  rx = 0;
+  rf = 0;
+
+  /** the residual at this.rx into this.rf */
+  evaluate(): void {
+    this.rf = this.residualAt(this.rx);
+  }
+
+  private at(X: number): number {
+    this.rx = X;
+    this.evaluate();
+    return this.rf;
+  }
+
+  private residualAt(X: number): number {
     const res = this.reservoir;
     const ae = inflowSoundSpeed(this.aRes, this.lam, X);
     const w = (ae * (this.lam / X - 1)) / G1;
@@ -65,12 +80,18 @@ export class OpenEnd implements Boundary, Residual {
     let X: number;
     if (xSonic < hi) {
       hi = xSonic;
-      const fhi = this.residual(hi);
+      const fhi = this.at(hi);
       if (fhi <= 0) {
         X = hi;
         out.choked = true;
-      } else X = bracketedRoot(this, lam, hi, this.residual(lam), fhi, TOL);
-    } else X = bracketedRoot(this, lam, hi, this.residual(lam), this.residual(hi), TOL);
+      } else {
+        bracketedRoot(this, lam, hi, this.at(lam), fhi, TOL);
+        X = this.rx;
+      }
+    } else {
+      bracketedRoot(this, lam, hi, this.at(lam), this.at(hi), TOL);
+      X = this.rx;
+    }
     writeInflow(out, this.aRes, res.temperature, lam, X, inc.area);
   }
 }

@@ -47,7 +47,22 @@ export class RestrictedEnd implements Boundary, Residual {
   constructor(public reservoir: Reservoir) {}
 
   /** residual for the current mode: pipe-end mass flow minus nozzle flow */
-  residual(X: number): number {
+  /** root-finder argument and value (solve.ts) */
+  rx = 0;
+  rf = 0;
+
+  /** the residual at this.rx into this.rf */
+  evaluate(): void {
+    this.rf = this.residualAt(this.rx);
+  }
+
+  private at(X: number): number {
+    this.rx = X;
+    this.evaluate();
+    return this.rf;
+  }
+
+  private residualAt(X: number): number {
     const res = this.reservoir;
     const pe = P_REF * powP(X);
     if (this.mode > 0) {
@@ -82,12 +97,13 @@ export class RestrictedEnd implements Boundary, Residual {
     if (pRest >= res.pressure) {
       this.mode = 1;
       const lo = (2 * lam) / (GAMMA + 1);
-      const flo = this.residual(lo);
+      const flo = this.at(lo);
       if (flo <= 0) {
         X = lo;
         out.choked = true;
       } else {
-        X = bracketedRoot(this, lo, lam, flo, this.residual(lam), TOL);
+        bracketedRoot(this, lo, lam, flo, this.at(lam), TOL);
+        X = this.rx;
       }
       writeOutflow(out, this.ap, lam, X, inc.area);
       return;
@@ -99,15 +115,17 @@ export class RestrictedEnd implements Boundary, Residual {
     let hi = xRes;
     if (xSonic < hi) {
       hi = xSonic;
-      const fhi = this.residual(hi);
+      const fhi = this.at(hi);
       if (fhi <= 0) {
         X = hi;
         out.choked = true;
       } else {
-        X = bracketedRoot(this, lam, hi, this.residual(lam), fhi, TOL);
+        bracketedRoot(this, lam, hi, this.at(lam), fhi, TOL);
+        X = this.rx;
       }
     } else {
-      X = bracketedRoot(this, lam, hi, this.residual(lam), this.residual(hi), TOL);
+      bracketedRoot(this, lam, hi, this.at(lam), this.at(hi), TOL);
+      X = this.rx;
     }
     writeInflow(out, this.aRes, res.temperature, lam, X, inc.area);
   }

@@ -1,25 +1,47 @@
 /**
- * Bracketed scalar root finding (Illinois variant of regula falsi) over an
- * object's residual method, so boundary solves allocate nothing.
+ * Bracketed scalar root finding (Illinois variant of regula falsi).
+ *
+ * The function is an object that reads its argument from `rx` and writes its
+ * value to `rf` in `evaluate()`: no double crosses a call boundary, so a call
+ * that V8 does not inline boxes nothing and a boundary solve allocates
+ * nothing.
  */
 export interface Residual {
-  residual(x: number): number;
+  /** argument of the next evaluation */
+  rx: number;
+  /** value at rx after evaluate() */
+  rf: number;
+  evaluate(): void;
 }
 
 /**
- * Root of f in [lo, hi] given f(lo) = flo and f(hi) = fhi of opposite signs.
- * Converges superlinearly; stops at |hi − lo| < tol·|x| or 60 iterations.
+ * Root of f in [lo, hi] given f(lo) = flo and f(hi) = fhi of opposite signs,
+ * left in f.rx. Converges superlinearly; stops at |hi − lo| < tol·|x| or 60
+ * iterations.
  */
-export function bracketedRoot(f: Residual, lo: number, hi: number, flo: number, fhi: number, tol: number): number {
-  if (flo === 0) return lo;
-  if (fhi === 0) return hi;
+export function bracketedRoot(f: Residual, lo0: number, hi0: number, flo0: number, fhi0: number, tol: number): void {
+  // '+ 0' makes float64 locals: loop variables that start as (boxed) arguments
+  // would otherwise stay boxed and allocate a number per iteration
+  let lo = lo0 + 0;
+  let hi = hi0 + 0;
+  let flo = flo0 + 0;
+  let fhi = fhi0 + 0;
+  if (flo === 0) {
+    f.rx = lo;
+    return;
+  }
+  if (fhi === 0) {
+    f.rx = hi;
+    return;
+  }
   let side = 0;
-  let x = lo;
   for (let k = 0; k < 60; k++) {
-    x = (lo * fhi - hi * flo) / (fhi - flo);
-    const fx = f.residual(x);
-    if (fx === 0 || Math.abs(hi - lo) < tol * Math.abs(x)) return x;
-    if ((fx > 0) === (fhi > 0)) {
+    const x = (lo * fhi - hi * flo) / (fhi - flo);
+    f.rx = x;
+    f.evaluate();
+    const fx = f.rf;
+    if (fx === 0 || Math.abs(hi - lo) < tol * Math.abs(x)) return;
+    if (fx > 0 === fhi > 0) {
       hi = x;
       fhi = fx;
       if (side === 1) flo *= 0.5;
@@ -31,5 +53,5 @@ export function bracketedRoot(f: Residual, lo: number, hi: number, flo: number, 
       side = -1;
     }
   }
-  return x;
+  // f.rx holds the last iterate
 }

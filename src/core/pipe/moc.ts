@@ -39,11 +39,6 @@ const GR = GAMMA * R_AIR;
 const INV_GR = 1 / GR;
 const INV_2G1 = 1 / (2 * G1);
 
-function minmod(a: number, b: number): number {
-  if (a * b <= 0) return 0;
-  return Math.abs(a) < Math.abs(b) ? a : b;
-}
-
 export class CharacteristicsScheme implements PipeScheme {
   readonly name = 'characteristics' as const;
   private lam: Float64Array;
@@ -305,11 +300,11 @@ export class CharacteristicsScheme implements PipeScheme {
     const { lam, bet, ent, rhoC } = this;
     const uOld = this.uv; // old-level velocities (see step)
     const sigma = dt / dx;
-    let prevFlux = inLeft;
+    let prevFlux = inLeft + 0; // "+ 0": a float64 local, so the loop phi is not a boxed number
     const corrected = this.nl; // scratch
     for (let i = 0; i < n; i++) {
       let nextFlux: number;
-      if (i === n - 1) nextFlux = outRight;
+      if (i === n - 1) nextFlux = outRight + 0;
       else {
         const uf = 0.25 * (uOld[i]! + uOld[i + 1]! + (lam[i]! - bet[i]!) / (2 * G1) + (lam[i + 1]! - bet[i + 1]!) / (2 * G1));
         const ff = 0.5 * (area[i]! + area[i + 1]!);
@@ -317,11 +312,13 @@ export class CharacteristicsScheme implements PipeScheme {
         if (uf >= 0) {
           const d1 = i > 0 ? rhoC[i]! - rhoC[i - 1]! : 0;
           const d2 = rhoC[i + 1]! - rhoC[i]!;
-          rf = rhoC[i]! + 0.5 * minmod(d1, d2) * (1 - uf * sigma);
+          const mm = d1 * d2 <= 0 ? 0 : Math.abs(d1) < Math.abs(d2) ? d1 : d2; // minmod
+          rf = rhoC[i]! + 0.5 * mm * (1 - uf * sigma);
         } else {
           const d1 = rhoC[i + 1]! - rhoC[i]!;
           const d2 = i + 2 < n ? rhoC[i + 2]! - rhoC[i + 1]! : 0;
-          rf = rhoC[i + 1]! - 0.5 * minmod(d1, d2) * (1 + uf * sigma);
+          const mm = d1 * d2 <= 0 ? 0 : Math.abs(d1) < Math.abs(d2) ? d1 : d2; // minmod
+          rf = rhoC[i + 1]! - 0.5 * mm * (1 + uf * sigma);
         }
         nextFlux = rf * uf * ff;
       }
