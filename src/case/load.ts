@@ -159,7 +159,8 @@ export function applySets(data: Record<string, unknown>, sets: readonly string[]
 }
 
 function firstIssue(issues: readonly CaseIssue[]): CaseError {
-  const i = issues[0];
+  // a misspelt key is the cause of the "required" issue of its sibling: report it first
+  const i = issues.find((x) => x.message.startsWith('unknown key')) ?? issues[0];
   if (!i) return new CaseError('', 'invalid case');
   return new CaseError(i.path, i.message, i.message.startsWith('unknown key') ? 'unknown-key' : 'invalid');
 }

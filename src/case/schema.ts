@@ -18,6 +18,9 @@ import { didYouMean } from './suggest.js';
 /** Default runner scheme when the case does not choose one: the core's. */
 export const DEFAULT_SCHEME: SchemeName = CORE_DEFAULT_SCHEME;
 
+/** engine speeds a case may ask for [rpm]: below 100 a cycle takes seconds to simulate, above 100000 nothing is an engine */
+export const RPM_LIMITS = { min: 100, max: 100000 } as const;
+
 export const SCHEMES: readonly SchemeName[] = ['characteristics', 'conservative'];
 
 /** Named entry-loss coefficients accepted for runner.entryLoss. */
@@ -288,6 +291,8 @@ export const caseSchema = z
       if (v.checkingLift !== undefined && !(v.checkingLift < v.maxLift))
         issue([side, 'checkingLift'], `must be below maxLift (${mm(v.maxLift)}), got ${mm(v.checkingLift)}`);
     }
+    if (!(c.rpm >= RPM_LIMITS.min && c.rpm <= RPM_LIMITS.max))
+      issue(['rpm'], `must be between ${RPM_LIMITS.min} and ${RPM_LIMITS.max} rpm, got ${c.rpm} rpm`);
     const n = c.numerics;
     if (!(n.courant > 0 && n.courant <= 1)) issue(['numerics', 'courant'], `must be in (0, 1], got ${n.courant}`);
     const L = c.runner.sections.reduce((s, x) => s + x.length, 0);
@@ -379,6 +384,7 @@ function valueAt(data: unknown, path: readonly PropertyKey[]): unknown {
 function typeName(v: unknown): string {
   if (v === undefined) return 'nothing';
   if (v === null) return 'null';
+  if (v instanceof Uint8Array) return 'binary data';
   if (Array.isArray(v)) return 'a list';
   if (typeof v === 'object') return 'a mapping';
   if (typeof v === 'string') return `'${v}'`;

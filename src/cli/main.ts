@@ -57,7 +57,8 @@ export function reportError(e: unknown, io: CliIo): number {
     return 2;
   }
   if (e instanceof SimulationError) {
-    io.stderr.write(`error: the simulation ${e.code === 'diverged' ? 'diverged' : 'could not start'}: ${e.message}\n`);
+    // the core's message says what happened ("the solver diverged (...) at ...")
+    io.stderr.write(`error: ${e.code === 'diverged' ? '' : 'the simulation could not start: '}${e.message}\n`);
     return e.code === 'invalid' ? 2 : 1;
   }
   const msg = e instanceof Error ? e.message : String(e);

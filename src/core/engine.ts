@@ -77,6 +77,10 @@ function atAngle(arr: Float64Array, theta: number): number {
 export function simulatePoint(model: EngineModel, options: SimulateOptions = {}): { result: PointResult; warmStart: WarmStart } {
   const { engine, ambient, intake, exhaust, runner, numerics, rpm } = model;
   if (!(rpm > 0)) throw new SimulationError('invalid', `rpm must be positive (got ${rpm})`);
+  if (!(numerics.courant > 0 && numerics.courant <= 1)) {
+    // beyond 1 the feet of the characteristics leave the neighbouring cell (CFL condition)
+    throw new SimulationError('invalid', `numerics.courant must be in (0, 1], got ${numerics.courant} (scheme ${numerics.scheme}, ${rpm} rpm)`);
+  }
   const delta = openEndCorrection(model);
   const mesh = buildMesh(withEndCorrection(runner.sections, delta), numerics.meshSize);
   const scheme = createPipeScheme(numerics.scheme, mesh, {

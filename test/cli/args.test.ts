@@ -51,7 +51,7 @@ describe('reportError: exit codes (DESIGN §3)', async () => {
   const { SimulationError } = await import('../../src/core/engine.js');
   it.each([
     [new CaseError('runner.length', 'must be positive, got -1 m'), 2, 'error: runner.length: must be positive, got -1 m\n'],
-    [new SimulationError('diverged', 'state went negative at θ 231°'), 1, 'error: the simulation diverged: state went negative at θ 231°\n'],
+    [new SimulationError('diverged', 'state went negative at θ 231°'), 1, 'error: state went negative at θ 231°\n'],
   ])('%s', (e, code, text) => {
     const io = memoryIo();
     expect(reportError(e, io)).toBe(code);

@@ -74,9 +74,14 @@ describe('quasi-steady limit', () => {
 });
 
 describe('divergence is reported, not hidden', () => {
-  it('a non-finite state stops with a SimulationError naming the case values', () => {
+  it('a Courant number above 1 (CFL condition broken) is refused up front, naming it', () => {
     const m = testEngine({ rpm: 6000 });
-    m.numerics.courant = 3; // breaks the CFL condition
-    expect(() => simulatePoint(m)).toThrow(/diverged.*6000 rpm.*courant 3/);
+    m.numerics.courant = 3;
+    expect(() => simulatePoint(m)).toThrow(/courant must be in \(0, 1\], got 3/);
+  });
+  it('a state gone non-finite stops with a SimulationError naming the case values', () => {
+    const m = testEngine({ rpm: 6000 });
+    m.runner.friction = 50; // absurd wall friction
+    expect(() => simulatePoint(m)).toThrow(/diverged.*6000 rpm/);
   });
 });

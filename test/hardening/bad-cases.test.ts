@@ -59,15 +59,7 @@ const cases = corpus();
  * owners of src/case. Their tests are expected failures (it.fails): when the
  * loader is fixed they start to "fail", and the entry is removed here.
  */
-const KNOWN_DEFECTS: Record<string, string> = {
-  // src/case/load.ts firstIssue() reports issues[0], a sibling's "required", before the
-  // "unknown key (did you mean ...)" issue of the misspelt key itself
-  'unknown-key-top.yaml': "reports 'runner: required' instead of 'runer: unknown key (did you mean runner)'",
-  'unknown-key-engine.yaml': "reports 'engine.stroke: required' instead of the misspelt key",
-  'unknown-key-intake.yaml': "reports 'intake.maxLift: required' instead of the misspelt key",
-  // src/case/schema.ts: rpm is only checked to be positive; --rpm is limited to 100000
-  'rpm-absurd.yaml': 'rpm 1e9 is accepted and run (exit 0, garbage results)',
-};
+const KNOWN_DEFECTS: Record<string, string> = {};
 
 describe('the bad-case corpus', () => {
   it('holds the defects the hardening issue lists', () => {

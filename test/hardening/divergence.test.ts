@@ -34,12 +34,9 @@ function failure(m: EngineModel): SimulationError {
 describe.each(SCHEMES)('divergence is caught and explained (%s)', (scheme) => {
   // The CFL condition (Courant–Friedrichs–Lewy): an explicit scheme is unstable, or for the
   // characteristics method reaches outside its domain of dependence, when C = (|u| + a)·dt/dx > 1.
-  // Known defect, reported to the core's owner: the characteristics scheme clamps the feet of the
-  // characteristics into the neighbouring cell, so C = 1.5 runs to the end with no error (wrong
-  // domain of dependence, no warning); simulatePoint does not check numerics.courant ≤ 1 up front.
-  // When it does, this expected failure starts to fail: drop the `.fails`.
-  const knownDefect = scheme === 'characteristics';
-  (knownDefect ? it.fails : it)('Courant number above 1 is refused or detected, naming the Courant number', { timeout: 10_000 }, () => {
+  // simulatePoint refuses numerics.courant > 1 up front (the characteristics scheme would
+  // otherwise clamp the feet of the characteristics into the neighbouring cell and run on).
+  it('Courant number above 1 is refused or detected, naming the Courant number', { timeout: 10_000 }, () => {
     const e = failure(model(scheme, (m) => (m.numerics.courant = 1.5)));
     expect(e.message).toContain('courant');
     expect(e.message).toContain('1.5');
@@ -72,7 +69,7 @@ describe('the command line on a diverging or unconverged run', () => {
     expect(r.code).toBe(1);
     const lines = r.err.split('\n').filter((l) => l !== '');
     expect(lines).toHaveLength(1);
-    expect(lines[0]).toMatch(/^error: the simulation diverged: /);
+    expect(lines[0]).toMatch(/^error: the solver diverged \(/);
     expect(lines[0]).toContain('6500 rpm');
     expect(r.err).not.toMatch(/\n\s+at /);
     expect(r.out).toBe('');
@@ -81,7 +78,7 @@ describe('the command line on a diverging or unconverged run', () => {
   it('a sweep with diverging points on two worker threads (9 speeds, three chunks): exit 1 with the same clear message', { timeout: 30_000 }, async () => {
     const r = await cli(['sweep', DEMO, '--rpm', '5000:7000:250', '--jobs', '2', '--set', 'runner.friction=50', '--set', 'numerics.meshSize=20mm']);
     expect(r.code).toBe(1);
-    expect(r.err).toMatch(/error: the simulation diverged: .*rpm/);
+    expect(r.err).toMatch(/error: the solver diverged \(.*rpm/);
     expect(r.err).not.toMatch(/\n\s+at /);
   });
 
