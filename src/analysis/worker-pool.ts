@@ -13,38 +13,18 @@
  * chunks from the fast end and yields between points to answer them. With
  * one job (or one chunk) no thread is started.
  *
- * Starting the worker, in the three ways the code is run:
- *   - .ts source (vitest, tsx): Node 20 cannot start a .ts worker. The
- *     worker and its imports are bundled once in memory with esbuild (a
- *     development dependency, there whenever the sources run) and started as
- *     an eval script; without esbuild, an eval bootstrap registers tsx's ESM
- *     loader in the worker and imports worker.ts (slower: every worker
- *     transforms the sources again);
- *   - compiled (dist/analysis/worker-pool.js): new Worker(dist/analysis/worker.js);
- *   - single-file bundle (dist/tractwave.mjs): every module shares the
- *     bundle's import.meta.url, so the worker imports the bundle itself,
- *     through an eval bootstrap. worker.ts, bundled in, serves chunks when
- *     workerData carries SWEEP_WORKER_FLAG. On that thread process.argv[1]
- *     is '[worker eval]', so an entry check that compares argv[1] with the
- *     bundle's path does not start the command line; an entry that runs
- *     unconditionally must check isMainThread (or isSweepWorker()). If the
- *     build also bundles src/analysis/worker.ts alone as WORKER_BUNDLE
- *     beside the main bundle, that small file is started instead (it loads
- *     in about a third of the time: no terminal-view code to parse).
+ * Workers are started by worker-start.ts (source, compiled and bundle
+ * layouts). The bundle's entry check must stay false on a worker thread: an
+ * entry that runs unconditionally must check isMainThread (or isSweepWorker()).
  */
-import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { createRequire } from 'node:module';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import { SimulationError } from '../core/index.js';
 import type { EngineModel } from '../core/model.js';
 import type { OutputAssumptions } from './estimates.js';
 import { chunkPoints, chunkSpeeds, runChunk, type SweepPoint } from './sweep.js';
 import { SWEEP_WORKER_FLAG, type ChunkJob, type ChunkReply } from './worker.js';
-
-/** file name of an optional worker-only bundle next to the main bundle */
-export const WORKER_BUNDLE = 'sweep-worker.mjs';
+import { startModuleWorker } from './worker-start.js';
 
 export interface ParallelSweepOptions {
   /** worker threads to use (default: the number of cores) */
@@ -58,73 +38,8 @@ export function defaultJobs(): number {
   return Math.max(1, availableParallelism());
 }
 
-/** How the worker is started in this layout (exported for tests and docs). */
-export function workerLayout(moduleUrl: string = import.meta.url): 'source' | 'compiled' | 'bundle' {
-  if (/\.[cm]?ts$/.test(moduleUrl)) return 'source';
-  if (/\/analysis\/worker-pool\.js$/.test(moduleUrl)) return 'compiled';
-  return 'bundle';
-}
-
-let workerSource: string | null | undefined;
-
-/**
- * worker.ts and its imports as one CommonJS script (source layout only),
- * built once per process; undefined when esbuild is not at hand.
- */
-function bundledWorkerSource(here: string): string | undefined {
-  if (workerSource === undefined) {
-    try {
-      const esbuild = createRequire(here)('esbuild') as typeof import('esbuild');
-      const out = esbuild.buildSync({
-        entryPoints: [fileURLToPath(new URL('./worker.ts', here))],
-        bundle: true,
-        platform: 'node',
-        format: 'cjs',
-        target: 'node20',
-        write: false,
-        logLevel: 'silent',
-      });
-      workerSource = out.outputFiles[0]?.text ?? null;
-    } catch {
-      workerSource = null;
-    }
-  }
-  return workerSource ?? undefined;
-}
-
 function startWorker(): Worker {
-  const here = import.meta.url;
-  const workerData = { [SWEEP_WORKER_FLAG]: true };
-  switch (workerLayout(here)) {
-    case 'source': {
-      // fastest: the worker and what it imports, bundled once in memory by
-      // esbuild (present wherever the .ts sources run) and started as plain JS
-      const code = bundledWorkerSource(here);
-      if (code !== undefined) return new Worker(code, { eval: true, workerData });
-      // else register tsx's ESM API in the worker (require.resolve finds its
-      // CommonJS twin beside it) and import worker.ts
-      const tsxApi = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
-      const target = new URL('./worker.ts', here).href;
-      const boot =
-        `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); })` +
-        `.catch((e) => { console.error(e); process.exit(1); });`;
-      return new Worker(boot, { eval: true, workerData });
-    }
-    case 'compiled':
-      return new Worker(new URL('./worker.js', here), { workerData });
-    case 'bundle': {
-      // a small worker-only bundle beside the main one starts fastest, when the build makes it
-      const small = new URL(`./${WORKER_BUNDLE}`, here);
-      if (existsSync(small)) return new Worker(small, { workerData });
-      // else the main bundle itself, through an eval bootstrap, so the worker's process.argv[1] is '[worker eval]',
-      // not the bundle: the bundle's "am I the entry script?" check stays false
-      // and only worker.ts (bundled in) acts, on SWEEP_WORKER_FLAG
-      return new Worker(`import(${JSON.stringify(here)}).catch((e) => { console.error(e); process.exit(1); });`, {
-        eval: true,
-        workerData,
-      });
-    }
-  }
+  return startModuleWorker('analysis/worker', SWEEP_WORKER_FLAG);
 }
 
 function rebuildError(e: { name: string; message: string; code?: string }): Error {

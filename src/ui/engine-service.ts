@@ -11,27 +11,15 @@
  * event loop between points; tests use it, and the thread engine falls back
  * to it when a worker cannot be started.
  *
- * Starting a worker in the three ways the code is run (as the analysis
- * module's worker pool does):
- *   - .ts source (vitest, tsx): the worker module and its imports bundled
- *     once in memory by esbuild and started as an eval script; without
- *     esbuild, an eval bootstrap registers tsx's ESM loader and imports the
- *     .ts module (slower);
- *   - compiled (dist/ui/engine-service.js): the .js module beside it;
- *   - single-file bundle: a worker-only bundle beside it (WORKER_BUNDLES:
- *     dist/point-worker.mjs, dist/sweep-worker.mjs) when the build makes
- *     one, else the compiled module beside it (dist/ui/worker.js,
- *     dist/analysis/worker.js, left by the tsc step of the build), else the
- *     bundle itself with the worker's flag in workerData. The bundle serves
- *     sweep chunks that way; it serves points only if its entry loads
- *     ui/worker.js, else that worker exits unused and points run on this
- *     thread.
+ * Workers start through analysis/worker-start.ts, in each of the source,
+ * compiled and bundle layouts. From the single-file bundle the point worker
+ * is dist/point-worker.mjs (or dist/ui/worker.js); if neither is there it
+ * starts the bundle itself, which serves sweep chunks but not points, so
+ * that worker exits unused and points run on this thread.
  */
-import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { createRequire } from 'node:module';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
+import { startModuleWorker, type WorkerModule } from '../analysis/worker-start.js';
 import type { WarmStart } from '../core/engine.js';
 import type { EngineModel, PointResult } from '../core/model.js';
 import { chunkSpeeds, runChunk } from '../analysis/sweep.js';
@@ -125,75 +113,9 @@ export function inlineEngine(): EngineService {
   };
 }
 
-type Layout = 'source' | 'compiled' | 'bundle';
-
-export function workerLayout(moduleUrl: string = import.meta.url): Layout {
-  if (/\.[cm]?tsx?$/.test(moduleUrl)) return 'source';
-  if (/\/ui\/engine-service\.js$/.test(moduleUrl)) return 'compiled';
-  return 'bundle';
-}
-
-/** Worker-only bundles the build may leave beside the main bundle, by module. */
-export const WORKER_BUNDLES: Readonly<Record<string, string>> = {
-  'ui/worker': 'point-worker.mjs',
-  'analysis/worker': 'sweep-worker.mjs',
-};
-
-const bundledSources = new Map<string, string | null>();
-
-/** A module of src/ and its imports as one CommonJS script, built once in memory by esbuild (source layout). */
-function bundledSource(module: string, here: string): string | undefined {
-  if (!bundledSources.has(module)) {
-    try {
-      const esbuild = createRequire(here)('esbuild') as typeof import('esbuild');
-      const out = esbuild.buildSync({
-        entryPoints: [fileURLToPath(new URL(`../${module}.ts`, here))],
-        bundle: true,
-        platform: 'node',
-        format: 'cjs',
-        target: 'node20',
-        write: false,
-        logLevel: 'silent',
-      });
-      bundledSources.set(module, out.outputFiles[0]?.text ?? null);
-    } catch {
-      bundledSources.set(module, null);
-    }
-  }
-  return bundledSources.get(module) ?? undefined;
-}
-
-/**
- * Start a worker for a module of src/ (e.g. 'ui/worker'), in whichever
- * layout this file runs (see the file header).
- */
-function startWorker(module: string, flag: string): Worker {
-  const here = import.meta.url;
-  const workerData = { [flag]: true };
-  const opts = { workerData, stderr: true } as const;
-  switch (workerLayout(here)) {
-    case 'source': {
-      const code = bundledSource(module, here);
-      if (code !== undefined) return quiet(new Worker(code, { ...opts, eval: true }));
-      const tsxApi = pathToFileURL(createRequire(here).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
-      const target = new URL(`../${module}.ts`, here).href;
-      const boot =
-        `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(target)}); })` +
-        `.catch((e) => { console.error(e); process.exit(1); });`;
-      return quiet(new Worker(boot, { ...opts, eval: true }));
-    }
-    case 'compiled':
-      return quiet(new Worker(new URL(`../${module}.js`, here), opts));
-    case 'bundle': {
-      const small = WORKER_BUNDLES[module];
-      for (const beside of [small ? new URL(`./${small}`, here) : undefined, new URL(`./${module}.js`, here)]) {
-        if (beside && existsSync(beside)) return quiet(new Worker(beside, opts));
-      }
-      // the main bundle itself, through an eval bootstrap so the worker's
-      // process.argv[1] is '[worker eval]' and the bundle's entry check stays false
-      return quiet(new Worker(`import(${JSON.stringify(here)}).catch((e) => { console.error(e); process.exit(1); });`, { ...opts, eval: true }));
-    }
-  }
+/** Start a module of src/ (e.g. 'ui/worker') on a worker thread (analysis/worker-start.ts). */
+function startWorker(module: WorkerModule, flag: string): Worker {
+  return quiet(startModuleWorker(module, flag, { stderr: true }));
 }
 
 /** A worker's stderr must not write over the screen: read and drop it. */

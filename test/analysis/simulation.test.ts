@@ -141,12 +141,12 @@ describe('failures and progress', () => {
   });
 });
 
-import { workerLayout } from '../../src/analysis/worker-pool.js';
+import { workerLayout } from '../../src/analysis/worker-start.js';
 
 describe('how the sweep worker is started', () => {
   it.each([
-    ['file:///x/src/analysis/worker-pool.ts', 'source'],
-    ['file:///x/dist/analysis/worker-pool.js', 'compiled'],
+    ['file:///x/src/analysis/worker-start.ts', 'source'],
+    ['file:///x/dist/analysis/worker-start.js', 'compiled'],
     ['file:///x/dist/tractwave.mjs', 'bundle'],
   ] as const)('%s → %s', (url, layout) => {
     expect(workerLayout(url)).toBe(layout);
