@@ -15,13 +15,13 @@
  */
 import { G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import { inflowSoundSpeed, writeInflow, writeOutflow } from './end-state.js';
-import { bracketedRoot, type Residual } from './solve.js';
+import { bracketedRoot, ScalarRoot } from './solve.js';
 import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
 
 const GR = GAMMA * R_AIR;
 const TOL = 1e-11;
 
-export class OpenEnd implements Boundary, Residual {
+export class OpenEnd extends ScalarRoot implements Boundary {
   private lam = 0;
   private aRes = 0;
 
@@ -32,24 +32,11 @@ export class OpenEnd implements Boundary, Residual {
   constructor(
     public reservoir: Reservoir,
     public entryLoss = 0,
-  ) {}
-
-  /** root-finder argument and value (solve.ts) */
-  rx = 0;
-  rf = 0;
-
-  /** the residual at this.rx into this.rf */
-  evaluate(): void {
-    this.rf = this.residualAt(this.rx);
+  ) {
+    super();
   }
 
-  private at(X: number): number {
-    this.rx = X;
-    this.evaluate();
-    return this.rf;
-  }
-
-  private residualAt(X: number): number {
+  protected residualAt(X: number): number {
     const res = this.reservoir;
     const ae = inflowSoundSpeed(this.aRes, this.lam, X);
     const w = (ae * (this.lam / X - 1)) / G1;

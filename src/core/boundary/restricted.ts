@@ -27,7 +27,7 @@
  */
 import { CP, G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import { orificeMassFlow } from '../flow.js';
-import { bracketedRoot, type Residual } from './solve.js';
+import { bracketedRoot, ScalarRoot } from './solve.js';
 import { solveClosed } from './closed.js';
 import { inflowSoundSpeed, writeInflow, writeOutflow } from './end-state.js';
 import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
@@ -35,7 +35,7 @@ import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
 const GR = GAMMA * R_AIR;
 const TOL = 1e-11;
 
-export class RestrictedEnd implements Boundary, Residual {
+export class RestrictedEnd extends ScalarRoot implements Boundary {
   /** effective area of the restriction [m²]; set before each solve */
   area = 0;
   private mode = 0; // +1 outflow, −1 inflow
@@ -44,25 +44,12 @@ export class RestrictedEnd implements Boundary, Residual {
   private pipeArea = 0;
   private aRes = 0;
 
-  constructor(public reservoir: Reservoir) {}
+  constructor(public reservoir: Reservoir) {
+    super();
+  }
 
   /** residual for the current mode: pipe-end mass flow minus nozzle flow */
-  /** root-finder argument and value (solve.ts) */
-  rx = 0;
-  rf = 0;
-
-  /** the residual at this.rx into this.rf */
-  evaluate(): void {
-    this.rf = this.residualAt(this.rx);
-  }
-
-  private at(X: number): number {
-    this.rx = X;
-    this.evaluate();
-    return this.rf;
-  }
-
-  private residualAt(X: number): number {
+  protected residualAt(X: number): number {
     const res = this.reservoir;
     const pe = P_REF * powP(X);
     if (this.mode > 0) {

@@ -55,3 +55,24 @@ export function bracketedRoot(f: Residual, lo0: number, hi0: number, flo0: numbe
   }
   // f.rx holds the last iterate
 }
+
+/**
+ * Base of a boundary solved by one bracketed root: subclasses give the
+ * residual; `at(x)` evaluates it through the field protocol above.
+ */
+export abstract class ScalarRoot implements Residual {
+  rx = 0;
+  rf = 0;
+
+  evaluate(): void {
+    this.rf = this.residualAt(this.rx);
+  }
+
+  protected at(x: number): number {
+    this.rx = x;
+    this.evaluate();
+    return this.rf;
+  }
+
+  protected abstract residualAt(x: number): number;
+}
