@@ -281,6 +281,12 @@ function startSweep(s: UiState): UiState {
   };
 }
 
+/** Go to a view; the first visit to the sweep view starts the sweep (there is nothing to see before). */
+function enterView(s: UiState, view: ViewName): UiState {
+  const next = { ...s, view, editing: undefined };
+  return view === 'sweep' && s.sweepStatus === 'idle' && !s.sweep ? startSweep(next) : next;
+}
+
 function clampRpm(v: number): number {
   return Math.min(RPM_MAX, Math.max(RPM_MIN, v));
 }
@@ -308,10 +314,10 @@ export function reduce(s: UiState, a: Action): UiState {
     case 'nextView': {
       const i = VIEWS.indexOf(s.view);
       const view = VIEWS[mod(i + a.dir, VIEWS.length)] as ViewName;
-      return { ...s, view, editing: undefined };
+      return enterView(s, view);
     }
     case 'showView':
-      return { ...s, view: a.view, editing: undefined };
+      return enterView(s, a.view);
     case 'speed': {
       const field = fieldByPath('rpm');
       const current = s.values['rpm'];

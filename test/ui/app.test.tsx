@@ -99,9 +99,10 @@ describe('the terminal view', () => {
     const seen: string[] = [];
     for (let k = 0; k < 4; k++) {
       await t.press(TAB);
-      seen.push(/\[(\d \w+)\]/.exec(t.frame())?.[1] ?? '?');
+      // the tab of the current view is in brackets, with its number when the header has room
+      seen.push(/\[(?:\d )?(\w+)\]/.exec(t.frame())?.[1] ?? '?');
     }
-    expect(seen).toEqual(['2 Runner', '3 Sweep', '4 Case', '1 Valve']);
+    expect(seen).toEqual(['Runner', 'Sweep', 'Case', 'Valve']);
   });
 
   it('an edit in the case view re-runs the point and shows the old result as the baseline', async () => {

@@ -297,3 +297,24 @@ describe('saving', () => {
     expect(s.message?.text).toBe('Not saved.');
   });
 });
+
+describe('the sweep view starts its sweep on the first visit', () => {
+  it('tab to the sweep view starts a sweep once; later visits do not restart it', () => {
+    let s = withPoint();
+    expect(s.sweepStatus).toBe('idle');
+    s = reduce(s, { type: 'showView', view: 'sweep' });
+    expect(s.sweepStatus).toBe('running');
+    const request = s.sweepRequest;
+    s = reduce(s, { type: 'showView', view: 'valve' });
+    s = reduce(s, { type: 'nextView', dir: 1 });
+    s = reduce(s, { type: 'nextView', dir: 1 });
+    expect(s.view).toBe('sweep');
+    expect(s.sweepRequest).toBe(request);
+  });
+  it('other views do not start it', () => {
+    let s = withPoint();
+    s = reduce(s, { type: 'showView', view: 'runner' });
+    s = reduce(s, { type: 'showView', view: 'case' });
+    expect(s.sweepStatus).toBe('idle');
+  });
+});
