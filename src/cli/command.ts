@@ -12,6 +12,7 @@ import type { OptionSpec, ParsedArgs } from './args.js';
 import { CaseError } from '../case/errors.js';
 import { loadCase, type LoadedCase } from '../case/load.js';
 import { parseQuantity } from '../case/units.js';
+import { RPM_LIMITS } from '../case/schema.js';
 
 export interface Command {
   name: string;
@@ -40,7 +41,8 @@ export const RPM_OPTION: OptionSpec = {
 export function parseRpm(text: string, option = '--rpm'): number {
   const r = parseQuantity(text, 'speed');
   if (!r.ok) throw new CaseError(option, `expected a speed in rpm, got '${text}'`, 'option');
-  if (!(r.value > 0) || r.value > 100000) throw new CaseError(option, `expected a speed between 0 and 100000 rpm, got '${text}'`, 'option');
+  if (!(r.value >= RPM_LIMITS.min && r.value <= RPM_LIMITS.max))
+    throw new CaseError(option, `expected a speed between ${RPM_LIMITS.min} and ${RPM_LIMITS.max} rpm, got '${text}'`, 'option');
   return r.value;
 }
 

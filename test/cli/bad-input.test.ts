@@ -54,7 +54,7 @@ describe('bad input: exit 2, one line naming the field', () => {
     ['unknown --set path, with a suggestion', () => ['run', demo, '--set', 'runner.lenght=0.3'], 'runner.lenght', "did you mean 'runner.length'"],
     ['--set without =', () => ['run', demo, '--set', 'runner.length'], '--set', 'path=value'],
     ['bad --rpm', () => ['run', demo, '--rpm', 'fast'], '--rpm', 'expected a speed in rpm'],
-    ['negative --rpm', () => ['run', demo, '--rpm', '-6500'], '--rpm', 'between 0 and 100000'],
+    ['negative --rpm', () => ['run', demo, '--rpm', '-6500'], '--rpm', 'between 100 and 100000'],
     ['--rpm with a wrong unit', () => ['run', demo, '--rpm', '6500 kPa'], '--rpm', 'expected a speed'],
     ['--rpm without a value', () => ['run', demo, '--rpm'], '--rpm', 'needs a value'],
     ['rod too short', () => ['run', join(dir, 'short-rod.yaml')], 'engine.rod', 'half the stroke'],

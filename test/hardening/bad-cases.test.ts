@@ -123,7 +123,7 @@ describe('bad options: exit 2, one line naming the option or the field', () => {
     [['run', DEMO, '--set', 'intake.closes=-260'], 'intake.closes', 'between 0 and 720'],
     [['run', DEMO, '--set', 'engine.bore'], '--set', 'path=value'],
     [['run', DEMO, '--set', 'engine=5'], 'engine', 'group of keys'],
-    [['run', DEMO, '--rpm', '0'], '--rpm', 'between 0 and 100000'],
+    [['run', DEMO, '--rpm', '0'], '--rpm', 'between 100 and 100000'],
     [['run', DEMO, '--rpm', 'idle'], '--rpm', 'expected a speed'],
     [['run', DEMO, '--rpm', '6500', '--rpm', '7000'], '--rpm', 'more than once'],
     [['sweep', DEMO, '--jobs', '0'], '--jobs', 'whole number'],
