@@ -15,7 +15,7 @@
  */
 import { G1, GAMMA, P_REF, PEXP, R_AIR, powP } from '../gas.js';
 import { inflowSoundSpeed, writeInflow, writeOutflow } from './end-state.js';
-import { bracketedRoot, ScalarRoot } from './solve.js';
+import { ScalarRoot } from './solve.js';
 import type { Boundary, EndState, Incoming, Reservoir } from './types.js';
 
 const GR = GAMMA * R_AIR;
@@ -62,23 +62,7 @@ export class OpenEnd extends ScalarRoot implements Boundary {
     }
     this.lam = lam;
     this.aRes = Math.sqrt(GR * res.temperature);
-    let hi = xRes;
-    const xSonic = lam / (1 - G1);
-    let X: number;
-    if (xSonic < hi) {
-      hi = xSonic;
-      const fhi = this.at(hi);
-      if (fhi <= 0) {
-        X = hi;
-        out.choked = true;
-      } else {
-        bracketedRoot(this, lam, hi, this.at(lam), fhi, TOL);
-        X = this.rx;
-      }
-    } else {
-      bracketedRoot(this, lam, hi, this.at(lam), this.at(hi), TOL);
-      X = this.rx;
-    }
-    writeInflow(out, this.aRes, res.temperature, lam, X, inc.area);
+    out.choked = this.inflowRoot(lam, xRes, TOL);
+    writeInflow(out, this.aRes, res.temperature, lam, this.rx, inc.area);
   }
 }

@@ -79,41 +79,22 @@ export class RestrictedEnd extends ScalarRoot implements Boundary {
     this.ap = inc.entropy;
     this.pipeArea = inc.area;
     const pRest = P_REF * powP(lam);
-    let X: number;
     out.choked = false;
     if (pRest >= res.pressure) {
       this.mode = 1;
       const lo = (2 * lam) / (GAMMA + 1);
       const flo = this.at(lo);
       if (flo <= 0) {
-        X = lo;
+        this.rx = lo;
         out.choked = true;
-      } else {
-        bracketedRoot(this, lo, lam, flo, this.at(lam), TOL);
-        X = this.rx;
-      }
-      writeOutflow(out, this.ap, lam, X, inc.area);
+      } else bracketedRoot(this, lo, lam, flo, this.at(lam), TOL);
+      writeOutflow(out, this.ap, lam, this.rx, inc.area);
       return;
     }
     this.mode = -1;
     this.aRes = Math.sqrt(GR * res.temperature);
     const xRes = Math.pow(res.pressure / P_REF, 1 / PEXP);
-    const xSonic = lam / (1 - G1);
-    let hi = xRes;
-    if (xSonic < hi) {
-      hi = xSonic;
-      const fhi = this.at(hi);
-      if (fhi <= 0) {
-        X = hi;
-        out.choked = true;
-      } else {
-        bracketedRoot(this, lam, hi, this.at(lam), fhi, TOL);
-        X = this.rx;
-      }
-    } else {
-      bracketedRoot(this, lam, hi, this.at(lam), this.at(hi), TOL);
-      X = this.rx;
-    }
-    writeInflow(out, this.aRes, res.temperature, lam, X, inc.area);
+    out.choked = this.inflowRoot(lam, xRes, TOL);
+    writeInflow(out, this.aRes, res.temperature, lam, this.rx, inc.area);
   }
 }

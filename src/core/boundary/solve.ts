@@ -6,6 +6,8 @@
  * that V8 does not inline boxes nothing and a boundary solve allocates
  * nothing.
  */
+import { G1 } from '../gas.js';
+
 export interface Residual {
   /** argument of the next evaluation */
   rx: number;
@@ -75,4 +77,26 @@ export abstract class ScalarRoot implements Residual {
   }
 
   protected abstract residualAt(x: number): number;
+
+  /**
+   * Inflow into the pipe end (open or restricted): the root of the residual
+   * in X ∈ [Λ, min(xRes, Λ/(1 − G1))] — from the incoming wave's rest state
+   * to the reservoir pressure or the pipe end's sonic limit |w| = a_e. The
+   * residual is negative at Λ; when it is still ≤ 0 at the sonic limit the
+   * pipe end is choked there. Leaves X in rx; returns true when choked.
+   */
+  protected inflowRoot(lam: number, xRes: number, tol: number): boolean {
+    const xSonic = lam / (1 - G1);
+    if (xSonic < xRes) {
+      const fhi = this.at(xSonic);
+      if (fhi <= 0) {
+        this.rx = xSonic;
+        return true;
+      }
+      bracketedRoot(this, lam, xSonic, this.at(lam), fhi, tol);
+      return false;
+    }
+    bracketedRoot(this, lam, xRes, this.at(lam), this.at(xRes), tol);
+    return false;
+  }
 }
