@@ -8,7 +8,8 @@ import { buildMesh } from './pipe/mesh.js';
 import { createPipeScheme } from './pipe/factory.js';
 import { closedEnd } from './boundary/closed.js';
 import { OpenEnd } from './boundary/open.js';
-import { newEndState, type Boundary, type Incoming } from './boundary/types.js';
+import type { Boundary } from './boundary/types.js';
+import { PipeBetween } from './pipe/between.js';
 import { SimulationError } from './engine.js';
 import type { PipeExperimentModel, PipeExperimentResult, PipeSnapshot } from './pipe-experiment-model.js';
 
@@ -34,10 +35,7 @@ export function runPipeExperiment(model: PipeExperimentModel): PipeExperimentRes
   scheme.setState(p0, u0, T0);
   const left: Boundary = ends.left === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.left.pressure, temperature: initial.left.temperature }, 0);
   const right: Boundary = ends.right === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.right.pressure, temperature: initial.right.temperature }, 0);
-  const incL: Incoming = { lambda: 0, entropy: 0, area: 0 };
-  const incR: Incoming = { lambda: 0, entropy: 0, area: 0 };
-  const endL = newEndState();
-  const endR = newEndState();
+  const between = new PipeBetween(scheme, left, right);
   const snapshots: PipeSnapshot[] = [];
   const mass: number[] = [];
   const p = new Float64Array(n);
@@ -51,11 +49,7 @@ export function runPipeExperiment(model: PipeExperimentModel): PipeExperimentRes
       let dt = scheme.maxStableDt(numerics.courant);
       if (!(dt > 0) || !Number.isFinite(dt)) throw new SimulationError('diverged', `the pipe solver diverged at t = ${t} s (CFL step not finite)`);
       if (t + dt > target) dt = target - t;
-      scheme.incoming('left', dt, incL);
-      scheme.incoming('right', dt, incR);
-      left.solve(incL, endL);
-      right.solve(incR, endR);
-      scheme.step(dt, endL, endR);
+      between.step(dt);
       t += dt;
       steps++;
       if ((steps & 63) === 0 && !scheme.healthy()) throw new SimulationError('diverged', `the pipe solver diverged at t = ${t} s`);

@@ -1,33 +1,26 @@
 /** Drives a pipe scheme between two boundaries (test support). */
-import type { Boundary, Incoming } from '../../src/core/boundary/types.js';
-import { newEndState } from '../../src/core/boundary/types.js';
+import type { Boundary, EndState } from '../../src/core/boundary/types.js';
 import type { PipeScheme } from '../../src/core/pipe/scheme.js';
+import { PipeBetween } from '../../src/core/pipe/between.js';
 
 export function drive(
   scheme: PipeScheme,
   left: Boundary,
   right: Boundary,
   tEnd: number,
-  onStep?: (t: number, dt: number, l: ReturnType<typeof newEndState>, r: ReturnType<typeof newEndState>) => void,
+  onStep?: (t: number, dt: number, l: EndState, r: EndState) => void,
   courant = 0.9,
 ): number {
-  const incL: Incoming = { lambda: 0, entropy: 0, area: 0 };
-  const incR: Incoming = { lambda: 0, entropy: 0, area: 0 };
-  const l = newEndState();
-  const r = newEndState();
+  const pipe = new PipeBetween(scheme, left, right);
   let t = 0;
   let steps = 0;
   while (t < tEnd - 1e-15) {
     let dt = scheme.maxStableDt(courant);
     if (t + dt > tEnd) dt = tEnd - t;
-    scheme.incoming('left', dt, incL);
-    scheme.incoming('right', dt, incR);
-    left.solve(incL, l);
-    right.solve(incR, r);
-    scheme.step(dt, l, r);
+    pipe.step(dt);
     t += dt;
     steps++;
-    onStep?.(t, dt, l, r);
+    onStep?.(t, dt, pipe.endL, pipe.endR);
   }
   return steps;
 }
