@@ -116,6 +116,8 @@ export class ConservativeScheme implements PipeScheme {
   private readonly faceR = new Float64Array(2);
   private readonly faceU = new Float64Array(2);
   private readonly faceP = new Float64Array(2);
+  /** largest |u| + a over the cells, kept by updatePrimitives [m/s] */
+  private waveSpeed = 0; // 0 until the first state is set
   // HLLC result per unit area
   private h0 = 0;
   private h1 = 0;
@@ -161,11 +163,7 @@ export class ConservativeScheme implements PipeScheme {
   }
 
   maxStableDt(courant: number): number {
-    let smax = 0;
-    for (let i = 0; i < this.cells; i++) {
-      const s = Math.abs(this.u[i]!) + Math.sqrt((GAMMA * this.p[i]!) / this.r[i]!);
-      if (s > smax) smax = s;
-    }
+    const smax = this.waveSpeed;
     return smax > 0 ? (courant * this.dx) / smax : Infinity;
   }
 
@@ -371,15 +369,21 @@ export class ConservativeScheme implements PipeScheme {
     }
   }
 
+  /** primitives from the conserved variables, and the largest wave speed |u| + a for the next CFL step */
   private updatePrimitives(): void {
+    let smax = 0;
     for (let i = 0; i < this.cells; i++) {
       const F = this.Fc[i]!;
       const rho = this.m[i]! / F;
       const u = this.mo[i]! / this.m[i]!;
+      const p = GM1 * (this.en[i]! / F - 0.5 * rho * u * u);
       this.r[i] = rho;
       this.u[i] = u;
-      this.p[i] = GM1 * (this.en[i]! / F - 0.5 * rho * u * u);
+      this.p[i] = p;
+      const sp = Math.abs(u) + Math.sqrt((GAMMA * p) / rho);
+      if (sp > smax) smax = sp;
     }
+    this.waveSpeed = smax;
   }
 
   /**
