@@ -18,6 +18,11 @@ import { didYouMean } from './suggest.js';
 /** Default runner scheme when the case does not choose one: the core's. */
 export const DEFAULT_SCHEME: SchemeName = CORE_DEFAULT_SCHEME;
 
+/** plausibility limits of a runner [m]: past them a bare number meant as mm was read as m */
+export const RUNNER_LIMITS = { length: 3, diameter: 0.3 } as const;
+/** largest bore or stroke [m] */
+export const ENGINE_SIZE_LIMIT = 0.5;
+
 /** engine speeds a case may ask for [rpm]: below 100 a cycle takes seconds to simulate, above 100000 nothing is an engine */
 export const RPM_LIMITS = { min: 100, max: 100000 } as const;
 
@@ -209,6 +214,26 @@ const runnerSchema = z
         return z.NEVER;
       }
     }
+    // plausibility: a bare number is in metres, so "300" meant as millimetres is 300 m
+    const big = (path: (string | number)[], v: number, limit: number, what: string): boolean => {
+      if (v <= limit) return false;
+      ctx.addIssue({ code: 'custom', path, message: `${what} ${limit} m is not an intake runner, got ${Number(v.toPrecision(6))} m (a plain number is in metres: write "${Number(v.toPrecision(6))} mm" if you meant millimetres)` });
+      return true;
+    };
+    let bad = false;
+    if (r.sections === undefined) {
+      bad = big(['length'], r.length!, RUNNER_LIMITS.length, 'a runner longer than') || bad;
+      bad = big(['diameter'], r.diameter!, RUNNER_LIMITS.diameter, 'a diameter over') || bad;
+    } else {
+      r.sections.forEach((x, k) => {
+        bad = big(['sections', k, 'length'], x.length, RUNNER_LIMITS.length, 'a section longer than') || bad;
+        bad = big(['sections', k, 'diameterStart'], x.diameterStart, RUNNER_LIMITS.diameter, 'a diameter over') || bad;
+        bad = big(['sections', k, 'diameterEnd'], x.diameterEnd, RUNNER_LIMITS.diameter, 'a diameter over') || bad;
+      });
+      const total = r.sections.reduce((t, x) => t + x.length, 0);
+      if (!bad) bad = big(['sections'], total, RUNNER_LIMITS.length, 'a runner longer than');
+    }
+    if (bad) return z.NEVER;
     const sections = r.sections ?? [{ length: r.length!, diameterStart: r.diameter!, diameterEnd: r.diameter! }];
     return {
       sections,
@@ -280,6 +305,10 @@ export const caseSchema = z
     const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
     const mm = (v: number) => `${Number((v * 1000).toPrecision(6))} mm`;
     const e = c.engine;
+    for (const k of ['bore', 'stroke'] as const) {
+      if (e[k] > ENGINE_SIZE_LIMIT)
+        issue(['engine', k], `larger than ${ENGINE_SIZE_LIMIT} m is not a single-cylinder engine we model, got ${Number(e[k].toPrecision(6))} m (a plain number is in metres: write "${Number(e[k].toPrecision(6))} mm" if you meant millimetres)`);
+    }
     if (!(e.rod > e.stroke / 2)) issue(['engine', 'rod'], `must be longer than half the stroke (${mm(e.stroke / 2)}), got ${mm(e.rod)}`);
     if (!(e.compressionRatio > 1)) issue(['engine', 'compressionRatio'], `must be greater than 1, got ${e.compressionRatio}`);
     for (const side of ['intake', 'exhaust'] as const) {

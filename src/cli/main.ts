@@ -27,7 +27,8 @@ export { type CliIo, memoryIo } from './io.js';
 function topHelp(): string {
   const w = Math.max(...commands.map((c) => c.name.length)) + 2;
   return `tractwave: crank-degree-by-degree simulation of a single-cylinder intake
-tract (1-D unsteady runner, method of characteristics, coupled to the cylinder)
+tract: a 1-D unsteady runner (conservative finite volumes by default, or the
+method of characteristics) coupled to the valves, the cylinder and a plenum
 
 usage
   tractwave [CASE]               terminal view (default case: the bundled demo)

@@ -183,6 +183,7 @@ usually costs at a nearby one. Each design's peak speed is shown beside it,
 and a heat map shows ηv over speed for every design.
 
 Values may carry a unit (250mm:450mm:50mm); all three parts use the same one.
+A bare number is in SI units: runner.length=0.25:0.45:0.05 is in metres.
 They are applied to the case like --set, after the --set options.
 
 Speeds and band default as for sweep: the case keys 'sweep' and 'band', else
