@@ -96,7 +96,22 @@ export function optionHelp(specs: readonly OptionSpec[]): string {
   left.push('-h, --help');
   const w = Math.max(...left.map((l) => l.length)) + 2;
   const desc = [...specs.map((s) => s.description), 'show this help'];
-  return left.map((l, i) => `  ${l.padEnd(w)}${desc[i]}`).join('\n');
+  // descriptions wrapped to fit 80 columns, continuation lines under the description
+  const room = Math.max(30, 80 - 2 - w);
+  return left.map((l, i) => `  ${l.padEnd(w)}${wrapWords(desc[i] ?? '', room).join(`\n${' '.repeat(w + 2)}`)}`).join('\n');
+}
+
+function wrapWords(text: string, width: number): string[] {
+  const lines: string[] = [];
+  let cur = '';
+  for (const word of text.split(/\s+/).filter((x) => x !== '')) {
+    if (cur !== '' && cur.length + 1 + word.length > width) {
+      lines.push(cur);
+      cur = word;
+    } else cur = cur === '' ? word : `${cur} ${word}`;
+  }
+  lines.push(cur);
+  return lines;
 }
 
 /** Exactly `n` positionals, or a usage error naming what is missing or extra. */

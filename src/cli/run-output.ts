@@ -134,11 +134,14 @@ export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTimin
   const warn = Math.abs(r.massImbalance) > MASS_IMBALANCE_WARNING ? '  (above 0.5 %: see warning)' : '';
   s += row('mass balance', `inlet ${mg(r.inletMass)} vs valve ${mg(r.deliveredMass)}: ${pct(r.massImbalance, 2)}${warn}`);
   s += '\npulse timing\n';
-  s += row('wave round trip 2L/a', `${deg(pulse.roundTripDegrees, 1)} of crank (L ${mm(pulse.runnerLength, 0)}, a ${fix(pulse.soundSpeed, 0)} m/s)`);
+  // a: the simulated mean sound speed in the runner (check uses the ambient's)
+  s += row('wave round trip 2L/a', `${deg(pulse.roundTripDegrees, 1)} of crank (L ${mm(pulse.runnerLength, 0)}, a ${fix(pulse.soundSpeed, 0)} m/s in the runner)`);
   s += row('quarter-wave, wave order', `${fix(pulse.quarterWaveFrequency, 1)} Hz, order ${fix(pulse.waveOrder, 2)} at this speed`);
-  const pk = pulse.lastPeakBeforeIvc;
+  // the compression peak the verdict speaks of: still rising at IVC → the one just after
+  const after = pulse.effect === 'helping' ? pulse.peakAfterIvc : null;
+  const pk = after ?? pulse.lastPeakBeforeIvc;
   s += row(
-    'last peak before IVC',
+    after ? 'peak just after IVC' : 'last peak before IVC',
     pk ? `θ ${deg(pk.crank, 1)}, ${deg(Math.abs(pk.offsetFromIvc), 1)} ${pk.offsetFromIvc <= 0 ? 'before' : 'after'} IVC, +${kPa(pk.pressureAboveReference)}` : 'none in the open period',
   );
   s += row('at IVC', `${kPa(pulse.atIvc.pressureAboveReference)} vs ${pulse.referenceKind} (ringing phase ${fix(pulse.atIvc.ringingPhase, 0)}°)`);

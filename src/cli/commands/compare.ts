@@ -60,7 +60,8 @@ export const compareCommand: Command = {
   name: 'compare',
   summary: 'two designs over the same speeds: curves, differences, band means, who wins where',
   help: `usage: tractwave compare A.yaml B.yaml [--rpm FROM:TO:STEP] [--band LO:HI]
-                         [--set path=value ...] [--jobs N] [--json | --csv FILE [--force]]
+                         [--set path=value ...] [--jobs N]
+                         [--json | --csv FILE [--force]]
 
 Sweeps both cases over the same speeds and shows their ηv curves on one chart
 (A as a line, B in dots), the difference B − A at each speed in percentage

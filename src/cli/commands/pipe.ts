@@ -7,7 +7,10 @@ import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../ar
 import { SET_OPTION, type Command } from '../command.js';
 import { fix, table } from '../format.js';
 
-const OPTIONS: OptionSpec[] = [SET_OPTION, { name: 'json', type: 'boolean', description: 'print x and the snapshots as JSON (SI units)' }];
+const OPTIONS: OptionSpec[] = [
+  { ...SET_OPTION, description: 'override a case value, e.g. --set pipe.length=2m (repeatable)' },
+  { name: 'json', type: 'boolean', description: 'print x and the snapshots as JSON (SI units)' },
+];
 
 /** rows shown per snapshot in the text table */
 const TABLE_ROWS = 11;
@@ -54,9 +57,11 @@ temperature along the pipe at the requested times. For teaching (how a pulse
 reflects) and for checking the solver (Sod's shock tube).
 
 A pipe case:
-  pipe:    { length, diameter, meshSize, wallFriction: true, wallHeatTransfer: true }
+  pipe:    { length, diameter, meshSize, wallFriction: true,
+             wallHeatTransfer: true }
   ends:    { left: closed | open, right: closed | open }
-  initial: { split: 0..1, left: { pressure, temperature, velocity }, right: { ... } }
+  initial: { split: 0..1, left: { pressure, temperature, velocity },
+             right: { ... } }
   times:   [ 0 s, 1 ms, ... ]
   numerics: { courant, scheme }
 

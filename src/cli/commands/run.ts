@@ -19,7 +19,8 @@ const OPTIONS: OptionSpec[] = [
 export const runCommand: Command = {
   name: 'run',
   summary: 'simulate one operating point: ηv, trapped mass, pulse timing',
-  help: `usage: tractwave run CASE [--rpm N] [--set path=value ...] [--json | --csv FILE [--force]]
+  help: `usage: tractwave run CASE [--rpm N] [--set path=value ...]
+                     [--json | --csv FILE [--force]]
 
 Simulates the case at one speed, cycle after cycle until periodic, and prints
 volumetric efficiency, delivered and trapped mass, residual gas, pressures at

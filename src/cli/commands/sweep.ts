@@ -405,8 +405,9 @@ export interface SweepJson {
 export const sweepCommand: Command = {
   name: 'sweep',
   summary: 'ηv, estimated torque and power against speed; band mean and best speed',
-  help: `usage: tractwave sweep CASE [--rpm FROM:TO:STEP] [--band LO:HI] [--set path=value ...]
-                       [--jobs N] [--json | --csv FILE [--force]]
+  help: `usage: tractwave sweep CASE [--rpm FROM:TO:STEP] [--band LO:HI]
+                       [--set path=value ...] [--jobs N]
+                       [--json | --csv FILE [--force]]
 
 Simulates the case at each speed of the range and shows volumetric efficiency
 against speed as a chart and a table, the mean over the speed band (area under

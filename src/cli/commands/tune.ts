@@ -200,8 +200,10 @@ points [{rpm, volumetricEfficiency, torque, power, converged, massImbalance}]}]
 best first, stats {designs, points, jobs, wallSeconds}.
 
 examples
-  tractwave tune cases/demo.yaml --vary runner.length=250mm:450mm:50mm --band 5000:8000
-  tractwave tune cases/demo.yaml --vary runner.length=300mm:420mm:40mm --vary intake.closes=50:70:10
+  tractwave tune cases/demo.yaml --vary runner.length=250mm:450mm:50mm \\
+      --band 5000:8000
+  tractwave tune cases/demo.yaml --vary runner.length=300mm:420mm:40mm \\
+      --vary intake.closes=50:70:10
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
