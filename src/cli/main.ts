@@ -83,7 +83,6 @@ interface UiModule {
 
 async function importUi(): Promise<UiModule | undefined> {
   try {
-    // @ts-ignore -- src/ui/index.tsx is written in parallel; its absence is handled below
     return (await import('../ui/index.js')) as UiModule;
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
@@ -97,6 +96,7 @@ async function interactive(argv: readonly string[], io: CliIo): Promise<number> 
   if (argv.length > 1) throw new CaseError(argv[1]!, 'unexpected argument (usage: tractwave [CASE], or tractwave <command> ...; see --help)', 'option');
   const given = argv[0];
   const file = given ?? defaultCasePath();
+  const loaded = await loadCase(file, { cwd: io.cwd }); // bad input: exit 2 before anything else
   if (!(io.stdinIsTTY && io.stdoutIsTTY)) {
     io.stderr.write(
       'error: the interactive view needs a terminal (stdin and stdout are not a TTY); ' +
@@ -104,7 +104,6 @@ async function interactive(argv: readonly string[], io: CliIo): Promise<number> 
     );
     return 2;
   }
-  const loaded = await loadCase(file, { cwd: io.cwd }); // bad input: exit 2 before any screen is drawn
   const ui = await importUi();
   if (ui?.startUi) return ui.startUi(resolve(io.cwd, file));
   io.stderr.write('note: the interactive view is not built in this version; showing the run summary instead\n');
