@@ -4,6 +4,7 @@
  * background, the play timer, saving — and passes plain numbers to the
  * display-only views.
  */
+import { dirname, resolve } from 'node:path';
 import React, { useCallback, useEffect, useReducer, useRef } from 'react';
 import { Box, useApp, useInput, useStdin, type Key } from 'ink';
 import type { WarmStart } from '../core/engine.js';
@@ -39,6 +40,17 @@ export interface AppProps {
 /** Messages of errors for the status line: the case loader's CaseError names the field. */
 function messageOf(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
+}
+
+/** A file-system failure of a save, in plain words (no temp-file names). */
+export function saveProblem(e: unknown, path: string): string {
+  const code = (e as NodeJS.ErrnoException | undefined)?.code;
+  const dir = dirname(resolve(path));
+  if (code === 'ENOENT') return `the folder ${dir} does not exist`;
+  if (code === 'EACCES' || code === 'EPERM') return `no permission to write in ${dir}`;
+  if (code === 'EISDIR') return `${path} is a folder`;
+  if (code === 'ENOSPC') return 'the disk is full';
+  return messageOf(e);
 }
 
 function isBadInput(e: unknown): boolean {
@@ -169,7 +181,7 @@ export function App(props: AppProps): React.JSX.Element {
         (e: unknown) => {
           if (!live) return;
           if (e instanceof FileExistsError) dispatch({ type: 'saveChecked', exists: true });
-          else dispatch({ type: 'saveFailed', message: `Not saved: ${messageOf(e)}` });
+          else dispatch({ type: 'saveFailed', message: `Not saved: ${saveProblem(e, save.path)}` });
         },
       );
     }

@@ -8,7 +8,7 @@ import { basename } from 'node:path';
 import type { EngineModel } from '../core/model.js';
 import { buildCase, loadCase, UNITS, type LoadedCase } from '../case/index.js';
 import { FIELDS, sectionFields, type FieldDef } from './fields.js';
-import { fileExists, saveEditedCase, suggestSavePath } from './save.js';
+import { fileExists, saveDirFor, saveEditedCase, suggestSavePath } from './save.js';
 import type { Edit } from './state.js';
 
 export interface SweepPlan {
@@ -119,7 +119,7 @@ export async function openCase(file: string): Promise<CaseSession> {
     ...fieldValues(loaded),
     sweepPlan: sweepPlanOf(loaded),
     build: (edits) => buildCase(structuredClone(raw), file, { set: setsOf(edits) }).model,
-    suggestSavePath: () => suggestSavePath(file),
+    suggestSavePath: async () => suggestSavePath(file, fileExists, await saveDirFor(file)),
     exists: fileExists,
     save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),
   };

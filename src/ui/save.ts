@@ -11,7 +11,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import { constants } from 'node:fs';
-import { access, link, open, rename, unlink } from 'node:fs/promises';
+import { access, link, open, readFile, rename, unlink } from 'node:fs/promises';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import YAML from 'yaml';
 import { parseCase, parseSetValue, readCaseText } from '../case/index.js';
@@ -50,11 +50,15 @@ export function editedCaseText(original: string, edits: readonly Edit[], sourceN
 }
 
 /**
- * The first free name beside the case: demo.yaml → demo-2.yaml, demo-3.yaml …
- * (an already numbered name counts on from its number).
+ * The first free name for an edited case in `dir` (default: beside the case):
+ * demo.yaml → demo-2.yaml, demo-3.yaml … (an already numbered name counts on
+ * from its number).
  */
-export async function suggestSavePath(caseFile: string, exists: (p: string) => Promise<boolean> = fileExists): Promise<string> {
-  const dir = dirname(caseFile);
+export async function suggestSavePath(
+  caseFile: string,
+  exists: (p: string) => Promise<boolean> = fileExists,
+  dir: string = dirname(caseFile),
+): Promise<string> {
   const ext = extname(caseFile) || '.yaml';
   const stem = basename(caseFile, ext);
   const m = /^(.*)-(\d+)$/.exec(stem);
@@ -65,6 +69,22 @@ export async function suggestSavePath(caseFile: string, exists: (p: string) => P
     if (!(await exists(candidate))) return candidate;
   }
   return join(dir, `${base}-${randomBytes(3).toString('hex')}${ext}`);
+}
+
+/**
+ * Where to offer saving an edited case: beside it, except for the cases
+ * bundled with tractwave (a cases/ folder next to its package.json), which
+ * stay as shipped; those are offered in the working directory instead.
+ */
+export async function saveDirFor(caseFile: string, cwd: string = process.cwd()): Promise<string> {
+  const dir = dirname(resolve(caseFile));
+  try {
+    const pkg = JSON.parse(await readFile(join(dir, '..', 'package.json'), 'utf8')) as { name?: unknown };
+    if (basename(dir) === 'cases' && pkg.name === 'tractwave') return cwd;
+  } catch {
+    // no package.json beside: a user's own folder
+  }
+  return dir;
 }
 
 /** Write `text` to `target` atomically; refuse an existing target unless `overwrite`. */

@@ -147,3 +147,17 @@ describe('case session', () => {
     expect(p.band.to).toBeGreaterThan(p.band.from);
   });
 });
+
+describe('where an edited case is offered', () => {
+  it('the bundled cases stay as shipped: their edits are offered in the working directory', async () => {
+    const { saveDirFor } = await import('../../src/ui/save.js');
+    const bundled = new URL('../../cases/demo.yaml', import.meta.url).pathname;
+    expect(await saveDirFor(bundled, '/somewhere/else')).toBe('/somewhere/else');
+  });
+  it("a user's own case: beside it", async () => {
+    const { saveDirFor } = await import('../../src/ui/save.js');
+    const own = await mkdtemp(join(tmpdir(), 'tw-own-'));
+    expect(await saveDirFor(join(own, 'mine.yaml'), '/somewhere/else')).toBe(own);
+    await rm(own, { recursive: true, force: true });
+  });
+});

@@ -28,3 +28,17 @@ describe('status line mass-balance warning', () => {
     expect(MASS_WARNING).toBe(0.005);
   });
 });
+
+describe('save failures in plain words', () => {
+  it.each([
+    ['ENOENT', 'does not exist'],
+    ['EACCES', 'no permission'],
+    ['ENOSPC', 'disk is full'],
+  ])('%s → "%s", without the temporary file name', async (code, words) => {
+    const { saveProblem } = await import('../../src/ui/app.js');
+    const e = Object.assign(new Error(`${code}: open '/nowhere/.x.yaml.123.ab.tmp'`), { code });
+    const text = saveProblem(e, '/nowhere/x.yaml');
+    expect(text).toContain(words);
+    expect(text).not.toContain('.tmp');
+  });
+});
