@@ -20,7 +20,7 @@ import { colorWanted } from './palette.js';
 import { FileExistsError } from './save.js';
 import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type UiState } from './state.js';
 import { teachingLine } from './teach.js';
-import { fit, joinFit, mg, wrapWords } from './text.js';
+import { etaPct, etaPoints, fit, joinFit, mg, wrapWords } from './text.js';
 import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
 import { CasePanel, HelpScreen, RunnerView, SweepView, TooSmall, ValveView, Waiting } from './views.js';
 
@@ -336,10 +336,9 @@ export function statusLine(s: UiState, w: number): string {
   const parts: string[] = [];
   if (s.running) parts.push(`Running ${s.values['rpm'] ?? ''} rpm… (keys keep working)`);
   if (r) {
-    parts.push(`ηv ${r.volumetricEfficiency.toFixed(3)}`);
+    parts.push(`ηv ${etaPct(r.volumetricEfficiency)}`);
     if (b) {
-      const d = (r.volumetricEfficiency / b.volumetricEfficiency - 1) * 100;
-      parts.push(`baseline ${b.volumetricEfficiency.toFixed(3)} (${d >= 0 ? '+' : '−'}${Math.abs(d).toFixed(1)} %)`);
+      parts.push(`baseline ${etaPct(b.volumetricEfficiency)} (${etaPoints(r.volumetricEfficiency, b.volumetricEfficiency)})`);
     }
     parts.push(`trapped ${mg(r.trappedMass)} mg`);
     parts.push(r.converged ? `${r.cycles} cycles` : `NOT converged in ${r.cycles} cycles`);

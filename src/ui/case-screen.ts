@@ -5,7 +5,7 @@
  */
 import type { FieldDef } from './fields.js';
 import { formatField } from './fields.js';
-import { firstFit, fit, joinFit, kpa, mg, wrapWords } from './text.js';
+import { etaPct, etaPoints, firstFit, fit, joinFit, kpa, mg, wrapWords } from './text.js';
 import { padLines } from './valve-screen.js';
 
 export interface CaseScreenInput {
@@ -59,8 +59,8 @@ export function caseScreen(i: CaseScreenInput): string[] {
   const r = i.result;
   if (r) {
     const b = i.baseline;
-    const d = b ? ` (baseline ${b.volumetricEfficiency.toFixed(3)}, ${signed((r.volumetricEfficiency / b.volumetricEfficiency - 1) * 100)} %)` : '';
-    below.push(fit(`${i.running ? 'Running… last result' : 'Result'}: volumetric efficiency ηv ${r.volumetricEfficiency.toFixed(3)}${d}`, w));
+    const d = b ? ` (baseline ${etaPct(b.volumetricEfficiency)}, ${etaPoints(r.volumetricEfficiency, b.volumetricEfficiency)})` : '';
+    below.push(fit(`${i.running ? 'Running… last result' : 'Result'}: volumetric efficiency ηv ${etaPct(r.volumetricEfficiency)}${d}`, w));
     below.push(
       joinFit(
         [
@@ -100,8 +100,4 @@ export function listWindow(count: number, room: number, selected: number): numbe
   if (count <= room) return 0;
   const centred = selected - Math.floor(room / 2);
   return Math.max(0, Math.min(count - room, centred));
-}
-
-function signed(v: number): string {
-  return `${v >= 0 ? '+' : '−'}${Math.abs(v).toFixed(1)}`;
 }

@@ -6,7 +6,7 @@
  */
 import { bandMean } from '../analysis/sweep.js';
 import { axisLines, GLYPH, plotBins, valueRange, type ChartSeries, type ColumnMark } from './chart.js';
-import { firstFit, fit, joinFit } from './text.js';
+import { etaPct, etaPoints, firstFit, fit, joinFit } from './text.js';
 import { padLines } from './valve-screen.js';
 
 export interface Curve {
@@ -105,9 +105,6 @@ export function rpmTickStep(lo: number, hi: number, maxTicks: number): number {
   return 20000;
 }
 
-function eta3(v: number): string {
-  return Number.isFinite(v) ? v.toFixed(3) : '…';
-}
 
 export function sweepScreen(i: SweepScreenInput): string[] {
   const w = i.width;
@@ -152,7 +149,7 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const chart = plotBins(
     series,
     bins,
-    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => v.toFixed(3) },
+    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => (v * 100).toFixed(1) },
     { cursorColumn, shadeColumns: shade },
   );
   // unconverged points as ×
@@ -174,16 +171,16 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const s = curveStats(i.now, i.band);
   const b = i.before ? curveStats(i.before, i.band) : undefined;
   const band = `${Math.round(i.band.from)}–${Math.round(i.band.to)} rpm`;
-  const diff = b && Number.isFinite(s.mean) && Number.isFinite(b.mean) ? ` (${signedPct(s.mean / b.mean - 1)})` : '';
+  const diff = b && Number.isFinite(s.mean) && Number.isFinite(b.mean) ? ` (${etaPoints(s.mean, b.mean)})` : '';
   const line1 = joinFit(
-    [`Band ${band} ${GLYPH.band}: mean ηv ${eta3(s.mean)}${diff}`, b ? `baseline ${eta3(b.mean)}` : ''].filter(Boolean),
+    [`Band ${band} ${GLYPH.band}: mean ηv ${etaPct(s.mean)}${diff}`, b ? `baseline ${etaPct(b.mean)}` : ''].filter(Boolean),
     w,
     '   ',
   );
   const line2 = joinFit(
     [
-      `Best ${Number.isFinite(s.bestRpm) ? Math.round(s.bestRpm) : '…'} rpm, ηv ${eta3(s.bestEta)}`,
-      b ? `baseline best ${Number.isFinite(b.bestRpm) ? Math.round(b.bestRpm) : '…'} rpm, ηv ${eta3(b.bestEta)}` : '',
+      `Best ${Number.isFinite(s.bestRpm) ? Math.round(s.bestRpm) : '…'} rpm, ηv ${etaPct(s.bestEta)}`,
+      b ? `baseline best ${Number.isFinite(b.bestRpm) ? Math.round(b.bestRpm) : '…'} rpm, ηv ${etaPct(b.bestEta)}` : '',
       `${GLYPH.cursor} ${Math.round(i.currentRpm)} rpm shown`,
     ].filter(Boolean),
     w,
@@ -204,7 +201,7 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const title = firstFit(
     [
       'Volumetric efficiency ηv against engine speed (p pins this curve as the baseline)',
-      'Volumetric efficiency against engine speed',
+      'Volumetric efficiency ηv [%] against engine speed',
       'ηv against speed',
     ],
     w,
@@ -212,7 +209,3 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   return padLines([title, ...chart, ...axis, line1, line2, line3], i.rows, w);
 }
 
-function signedPct(f: number): string {
-  const v = f * 100;
-  return `${v >= 0 ? '+' : '−'}${Math.abs(v).toFixed(1)} %`;
-}

@@ -91,3 +91,14 @@ export function stripAnsi(s: string): string {
   // eslint-disable-next-line no-control-regex
   return s.replace(/\u001b\[[0-9;?]*[ -/]*[@-~]/g, '').replace(/\u001b\][^\u0007]*\u0007/g, '');
 }
+
+/** ηv as the text commands show it: a percentage with one decimal, "109.4 %" */
+export function etaPct(v: number): string {
+  return Number.isFinite(v) ? `${(v * 100).toFixed(1)} %` : '…';
+}
+
+/** a change of ηv in percentage points, "+3.9 points" (not a relative per cent) */
+export function etaPoints(now: number, before: number): string {
+  const d = (now - before) * 100;
+  return `${d >= 0 ? '+' : '−'}${Math.abs(d).toFixed(1)} points`;
+}

@@ -113,9 +113,11 @@ describe('sweep view lines', () => {
     expect(running).toContain('4 of 5 points');
     const text = sweepScreen({ ...input, status: 'done', now: done, before, width: 100, rows: 20 }).join('\n');
     // band 4000–6000 on straight lines: (0.9/2 + 1.0 + 0.95/2) / 2 = 0.9625; baseline (0.88/2 + 0.92 + 0.97/2)/2 = 0.9225
-    expect(text).toContain('mean ηv 0.963');
-    expect(text).toContain('baseline 0.922');
-    expect(text).toContain('Best 5000 rpm, ηv 1.000');
+    // shown as percentages (96.25 and 92.25 round either way in binary) and the change in points
+    expect(text).toMatch(/mean ηv 96\.[23] %/);
+    expect(text).toMatch(/baseline 92\.[23] %/);
+    expect(text).toContain('+4.0 points');
+    expect(text).toContain('Best 5000 rpm, ηv 100.0 %');
     expect(text).toContain('4000');
     expect(text).toContain('═');
   });
@@ -157,7 +159,7 @@ describe('case view lines', () => {
     expect(text).toContain('▶ Runner length');
     expect(text).toContain('320 mm');
     expect(text).toContain('(baseline 300)');
-    expect(text).toContain('ηv 0.950');
+    expect(text).toContain('ηv 95.0 % (baseline 90.0 %, +5.0 points)');
   });
 
   it('show the save prompt and the overwrite question', () => {
