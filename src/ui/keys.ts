@@ -112,7 +112,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     if (key.escape) return { type: 'cancel' };
     if (key.return) return { type: 'commitEdit' };
     if (key.backspace || key.delete) return { type: 'backspace' };
-    if (input && /^[0-9.+-]+$/.test(input)) return { type: 'type', text: input };
+    // any printable text is shown as typed; commitEdit says when it is not a plain number
+    if (input && !/[\x00-\x1f\x7f]/.test(input)) return { type: 'type', text: input };
     return undefined;
   }
 

@@ -354,7 +354,7 @@ export function reduce(s: UiState, a: Action): UiState {
         return { ...s, save: { ...s.save, path: s.save.path + a.text } };
       }
       if (s.editing === undefined) return s;
-      const text = (s.editing + a.text).replace(/[^0-9.+-]/g, '').slice(0, 12);
+      const text = (s.editing + a.text).slice(0, 16);
       return { ...s, editing: text };
     }
     case 'backspace': {
@@ -369,7 +369,7 @@ export function reduce(s: UiState, a: Action): UiState {
       if (!f || s.editing === undefined) return s;
       const v = parseTyped(s.editing);
       if (v === undefined) {
-        return { ...s, message: { text: `${f.label}: type a number in ${f.unit}.`, tone: 'error' } };
+        return { ...s, message: { text: `${f.label}: type a plain number in ${f.unit}, got '${s.editing.trim()}'.`, tone: 'error' } };
       }
       if (s.values[f.path] === v) return { ...s, editing: undefined };
       return applyValue(s, f, v);
@@ -413,7 +413,8 @@ export function reduce(s: UiState, a: Action): UiState {
           values: { ...s.goodValues },
           request: { ...s.request, edits: s.goodEdits },
           runError: a.message,
-          message: { text: a.message, tone: 'error' },
+          // say which change was refused: the message may name another field it conflicts with
+          message: { text: s.request.label ? `${s.request.label} refused: ${a.message}` : a.message, tone: 'error' },
         };
       }
       return { ...s, running: false, runError: a.message, message: { text: a.message, tone: 'error' } };

@@ -179,7 +179,9 @@ describe('engine speed and edits', () => {
     s = press(s, '4');
     s = press(s, '2');
     s = press(s, '0');
-    s = press(s, 'x'); // not a number key: ignored while typing
+    s = press(s, 'x'); // shown as typed (commit would refuse it with a message)
+    expect(s.editing).toBe('420x');
+    s = press(s, '', { backspace: true });
     expect(s.editing).toBe('420');
     s = press(s, '', { return: true });
     expect(s.editing).toBeUndefined();
@@ -316,5 +318,31 @@ describe('the sweep view starts its sweep on the first visit', () => {
     s = reduce(s, { type: 'showView', view: 'runner' });
     s = reduce(s, { type: 'showView', view: 'case' });
     expect(s.sweepStatus).toBe('idle');
+  });
+});
+
+describe('typing a value in the case view', () => {
+  function typing(text: string): UiState {
+    let s = withPoint();
+    s = reduce(s, { type: 'showView', view: 'case' });
+    s = reduce(s, { type: 'beginEdit' });
+    for (const ch of text) s = reduce(s, { type: 'type', text: ch });
+    return s;
+  }
+  it('text that is not a plain number is shown as typed and refused with a message, nothing run', () => {
+    const s = typing('12 in');
+    expect(s.editing).toBe('12 in');
+    const after = reduce(s, { type: 'commitEdit' });
+    expect(after.message?.tone).toBe('error');
+    expect(after.message?.text).toContain("got '12 in'");
+    expect(after.request.id).toBe(s.request.id);
+  });
+  it('a refused value names the change that caused it', () => {
+    let s = typing('12');
+    s = reduce(s, { type: 'commitEdit' });
+    expect(s.running).toBe(true);
+    s = reduce(s, { type: 'pointFailed', id: s.request.id, message: 'numerics.meshSize: must be at most half the runner length', badInput: true });
+    expect(s.message?.text).toMatch(/refused: numerics\.meshSize/);
+    expect(s.message?.text.startsWith(s.request.label ?? 'x')).toBe(true);
   });
 });
