@@ -112,6 +112,13 @@ export function parseYamlText(text: string, file = ''): Record<string, unknown> 
   return data as Record<string, unknown>;
 }
 
+/** The object at `segs` inside raw data, if there is one. */
+function valueAt(data: unknown, segs: readonly string[]): Record<string, unknown> | undefined {
+  let d: unknown = data;
+  for (const k of segs) d = d !== null && typeof d === 'object' ? (d as Record<string, unknown>)[k] : undefined;
+  return d !== null && typeof d === 'object' ? (d as Record<string, unknown>) : undefined;
+}
+
 /** Parse one "--set" value as a YAML scalar (or flow value): "320mm", "0.32", "plenum", "true". */
 export function parseSetValue(text: string, path: string): unknown {
   const doc = YAML.parseDocument(text, YAML_OPTIONS);
@@ -134,6 +141,12 @@ export function applySets(data: Record<string, unknown>, sets: readonly string[]
     const r = resolvePath(schema, segs, data);
     if (!r.ok) {
       const prefix = segs.slice(0, r.at).join('.');
+      // a key of another kind of the same thing (inlet.volume on an ambient inlet)
+      if (resolvePath(schema, segs, undefined).ok) {
+        const kind = valueAt(data, segs.slice(0, r.at))?.['kind'];
+        const what = typeof kind === 'string' ? `${prefix}.kind is '${kind}'` : `this case's ${prefix || 'file'}`;
+        throw new CaseError(path, `does not apply while ${what}: set ${prefix ? `${prefix}.` : ''}kind too, before it`, 'unknown-key');
+      }
       const guess = closest(segs[r.at]!, r.known);
       const full = guess === undefined ? '' : ` (did you mean '${prefix ? `${prefix}.` : ''}${guess}'?)`;
       throw new CaseError(path, `unknown key in --set${full}`, 'unknown-key');

@@ -53,6 +53,8 @@ describe('bad input: exit 2, one line naming the field', () => {
     ['missing file', () => ['run', 'cases/no-such-case.yaml'], 'cases/no-such-case.yaml', 'file not found'],
     ['unknown --set path, with a suggestion', () => ['run', demo, '--set', 'runner.lenght=0.3'], 'runner.lenght', "did you mean 'runner.length'"],
     ['--set without =', () => ['run', demo, '--set', 'runner.length'], '--set', 'path=value'],
+    ['--set of a key of another inlet kind', () => ['run', demo, '--set', 'inlet.volume=5L'], 'inlet.volume', "does not apply while inlet.kind is 'ambient'"],
+    ['a runner length typed in mm without its unit', () => ['run', demo, '--set', 'runner.length=380'], 'runner.length', 'plain number is in metres'],
     ['bad --rpm', () => ['run', demo, '--rpm', 'fast'], '--rpm', 'expected a speed in rpm'],
     ['negative --rpm', () => ['run', demo, '--rpm', '-6500'], '--rpm', 'between 100 and 100000'],
     ['--rpm with a wrong unit', () => ['run', demo, '--rpm', '6500 kPa'], '--rpm', 'expected a speed'],
