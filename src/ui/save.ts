@@ -38,7 +38,13 @@ export function editedCaseText(original: string, edits: readonly Edit[], sourceN
   const doc = YAML.parseDocument(original, { keepSourceTokens: false });
   for (const e of edits) {
     const value = parseSetValue(e.value, e.path);
-    doc.setIn(e.path.split('.'), value);
+    const segs = e.path.split('.');
+    const old = doc.getIn(segs, true);
+    const was = YAML.isScalar(old) ? String(old.value) : undefined; // read before setIn updates the node
+    doc.setIn(segs, value);
+    // the line's own comment described the old value: say what it was instead
+    const now = doc.getIn(segs, true);
+    if (YAML.isScalar(now) && was !== undefined) now.comment = ` changed by tractwave, was ${was}`;
   }
   const note = [
     ` Saved by tractwave from ${sourceName}.`,

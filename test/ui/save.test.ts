@@ -39,6 +39,12 @@ describe('edited case text', () => {
     expect(comment).toBeDefined();
     expect(text).toContain((comment as string).trim());
   });
+  it("a changed line's own comment gives way to the old value", async () => {
+    const original = await readFile(demo, 'utf8');
+    const text = editedCaseText(original, [{ path: 'runner.length', value: '420 mm' }], 'demo.yaml');
+    const line = text.split('\n').find((l) => l.trim().startsWith('length:'));
+    expect(line).toMatch(/length: 420 mm # changed by tractwave, was 380 mm/);
+  });
 });
 
 describe('saving', () => {
