@@ -49,7 +49,7 @@ export function runnerScreen(i: RunnerScreenInput): string[] {
     if (r === 1 && two) return 'end';
     if (r === mapRows - 1) return two ? 'end' : upstreamName;
     if (r === mapRows - 2 && two) return upstreamName;
-    if (r === Math.floor(mapRows / 2) && mapRows >= 5) return `${lenMm}mm`;
+    if (r === Math.floor(mapRows / 2) && mapRows >= 5) return `↕${lenMm}mm`; // the length the axis spans, not a position on it
     return '';
   };
   const mapped = body.map((line, r) => fitLeft(gutterFor(r), g - 1) + (r === 0 || r === mapRows - 1 ? '┤' : '│') + line);
