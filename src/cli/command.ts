@@ -18,7 +18,7 @@ export interface Command {
   name: string;
   /** one line for the top-level help */
   summary: string;
-  /** the whole `tractwave <name> --help` text */
+  /** the whole `tractwave <name> --help` text (printed by the dispatcher, main.ts) */
   help: string;
   run(args: string[], io: CliIo): Promise<number>;
 }

@@ -125,7 +125,15 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     }
     if (first === undefined) return await interactive([], io);
     const cmd = findCommand(first);
-    if (cmd) return await cmd.run(argv.slice(1), io);
+    if (cmd) {
+      // `--help` anywhere after a command shows that command's help (one place for all commands)
+      const rest = argv.slice(1);
+      if (rest.includes('--help') || rest.includes('-h')) {
+        io.stdout.write(cmd.help);
+        return 0;
+      }
+      return await cmd.run(rest, io);
+    }
     if (first.startsWith('-')) throw new CaseError(first, 'unknown option (see tractwave --help)', 'option');
     if (existsSync(resolve(io.cwd, first)) || looksLikeCaseFile(first)) return await interactive(argv, io);
     const guess = closest(first, commands.map((x) => x.name));

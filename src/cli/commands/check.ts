@@ -92,10 +92,6 @@ ${optionHelp(OPTIONS)}
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
-    if (args.help) {
-      io.stdout.write(this.help);
-      return 0;
-    }
     const [file] = expectPositionals(args, ['CASE'], 'check');
     const loaded = await loadCaseFromArgs(file!, args, io);
     io.stdout.write(checkReport(loaded));

@@ -85,10 +85,6 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
-    if (args.help) {
-      io.stdout.write(this.help);
-      return 0;
-    }
     const [fileA, fileB] = expectPositionals(args, ['A.yaml', 'B.yaml'], 'compare');
     const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);

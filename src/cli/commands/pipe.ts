@@ -77,10 +77,6 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
-    if (args.help) {
-      io.stdout.write(this.help);
-      return 0;
-    }
     const [file] = expectPositionals(args, ['CASE'], 'pipe');
     const loaded = await loadPipeCase(file!, { set: args.list('set'), cwd: io.cwd });
     const t0 = performance.now();

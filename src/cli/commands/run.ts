@@ -48,10 +48,6 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
-    if (args.help) {
-      io.stdout.write(this.help);
-      return 0;
-    }
     const [file] = expectPositionals(args, ['CASE'], 'run');
     const csv = args.string('csv');
     if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');

@@ -207,10 +207,6 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
-    if (args.help) {
-      io.stdout.write(this.help);
-      return 0;
-    }
     const [file] = expectPositionals(args, ['CASE'], 'tune');
     const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
