@@ -20,6 +20,7 @@ import {
   JOBS_OPTION,
   loadForSweep,
   parseJobs,
+  pointJson,
   progress,
   RANGE_OPTION,
   signed,
@@ -45,15 +46,7 @@ function spanText(s: WinSpan): string {
 }
 
 function slim(points: readonly SweepPoint[]) {
-  return points.map((p) => ({
-    rpm: p.rpm,
-    volumetricEfficiency: p.volumetricEfficiency,
-    torque: p.torque,
-    power: p.power,
-    converged: p.converged,
-    massImbalance: p.massImbalance,
-    effect: p.pulse.effect,
-  }));
+  return points.map((p) => ({ ...pointJson(p), effect: p.pulse.effect }));
 }
 
 export const compareCommand: Command = {

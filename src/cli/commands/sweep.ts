@@ -308,6 +308,18 @@ export function pointRows(points: readonly SweepPoint[]): string[][] {
   ]);
 }
 
+/** One point of a curve in the JSON of compare and tune: the fields a curve is read by (SI). */
+export function pointJson(p: SweepPoint) {
+  return {
+    rpm: p.rpm,
+    volumetricEfficiency: p.volumetricEfficiency,
+    torque: p.torque,
+    power: p.power,
+    converged: p.converged,
+    massImbalance: p.massImbalance,
+  };
+}
+
 export const POINT_HEADER = ['rpm', 'ηv %', 'N·m*', 'kW*', 'imbal %', 'conv', 'wave @IVC', 'peak °', 'order'];
 
 /** what the columns of POINT_HEADER mean */

@@ -24,6 +24,7 @@ import {
   csvAndJsonChoice,
   JOBS_OPTION,
   parseJobs,
+  pointJson,
   progress,
   RANGE_OPTION,
   sweepGrid,
@@ -268,14 +269,7 @@ examples
           peakVolumetricEfficiency: d.peakVolumetricEfficiency,
           rank: d.rank,
           converged: d.unconverged === 0,
-          points: d.points.map((p) => ({
-            rpm: p.rpm,
-            volumetricEfficiency: p.volumetricEfficiency,
-            torque: p.torque,
-            power: p.power,
-            converged: p.converged,
-            massImbalance: p.massImbalance,
-          })),
+          points: d.points.map(pointJson),
         })),
         stats: {
           designs: designs.length,
