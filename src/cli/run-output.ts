@@ -2,6 +2,7 @@
  * Output of one simulated operating point: the JSON of `run` (DESIGN §3),
  * the per-degree CSV trace, and the text summary for a tuner.
  */
+import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import type { PointResult } from '../core/model.js';
 import type { PulseTiming } from '../analysis/pulse.js';
 import type { LoadedCase } from '../case/load.js';
@@ -9,7 +10,8 @@ import { thetaToCard } from '../case/to-model.js';
 import { card, deg, fix, gps, kPa, mg, mm, pct, row, wrap } from './format.js';
 
 /** mass imbalance above which a warning is printed [-] */
-export const MASS_IMBALANCE_WARNING = 0.005;
+/** the warning threshold of the mass balance (analysis/mass-balance.ts) */
+export const MASS_IMBALANCE_WARNING = MASS_IMBALANCE_LIMIT;
 
 export interface RunJson {
   rpm: number;
@@ -99,7 +101,7 @@ export function runWarnings(r: PointResult, maxCycles: number): string[] {
       `warning: not converged after ${r.cycles} cycles (cap numerics.maxCycles = ${maxCycles}; last change ${Number.isFinite(last) ? last.toExponential(1) : '?'}): the numbers are not yet periodic`,
     );
   }
-  if (Math.abs(r.massImbalance) > MASS_IMBALANCE_WARNING)
+  if (!massBalanceOk(r.massImbalance))
     w.push(
       `warning: mass imbalance ${pct(r.massImbalance, 2)} (runner inlet vs intake valve) is above ${pct(MASS_IMBALANCE_WARNING)}: try a smaller numerics.meshSize`,
     );
@@ -131,7 +133,7 @@ export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTimin
   s += row('valve pressure at IVO', kPa(r.valvePressureAtIvo));
   s += row('valve pressure at IVC', kPa(r.valvePressureAtIvc));
   s += row('peak reverse flow', gps(r.peakReverseFlow));
-  const warn = Math.abs(r.massImbalance) > MASS_IMBALANCE_WARNING ? '  (above 0.5 %: see warning)' : '';
+  const warn = !massBalanceOk(r.massImbalance) ? '  (above 0.5 %: see warning)' : '';
   s += row('mass balance', `inlet ${mg(r.inletMass)} vs valve ${mg(r.deliveredMass)}: ${pct(r.massImbalance, 2)}${warn}`);
   s += '\npulse timing\n';
   // a: the simulated mean sound speed in the runner (check uses the ambient's)

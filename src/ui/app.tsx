@@ -9,6 +9,7 @@ import React, { useCallback, useEffect, useReducer, useRef } from 'react';
 import { Box, useApp, useInput, useStdin, type Key } from 'ink';
 import type { WarmStart } from '../core/engine.js';
 import type { EngineModel } from '../core/model.js';
+import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import { windowStart } from './chart.js';
 import type { CaseSession } from './case-session.js';
 import type { EngineService } from './engine-service.js';
@@ -326,8 +327,8 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
   );
 }
 
-/** |mass imbalance| per cycle above which the status line warns [-] */
-export const MASS_WARNING = 0.005;
+/** |mass imbalance| per cycle above which the status line warns [-] (analysis/mass-balance.ts) */
+export const MASS_WARNING = MASS_IMBALANCE_LIMIT;
 
 export function statusLine(s: UiState, w: number): string {
   if (s.message) return fit(s.message.text, w);
@@ -343,7 +344,7 @@ export function statusLine(s: UiState, w: number): string {
     parts.push(`trapped ${mg(r.trappedMass)} mg`);
     parts.push(r.converged ? `${r.cycles} cycles` : `NOT converged in ${r.cycles} cycles`);
     // the solver's own mass balance: above 0.5 % the figures are suspect
-    if (Math.abs(r.massImbalance) > MASS_WARNING) parts.push(`mass balance off ${(r.massImbalance * 100).toFixed(1)} %!`);
+    if (!massBalanceOk(r.massImbalance)) parts.push(`mass balance off ${(r.massImbalance * 100).toFixed(1)} %!`);
   }
   if (s.playing) parts.push(`playing ${playRate(s)}°/s`);
   return joinFit(parts, w, ' · ');

@@ -5,6 +5,7 @@
  * Also the pieces `tune` and `compare` share: speed range and band from the
  * options or the case, --jobs, progress on stderr, the curve chart.
  */
+import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
@@ -25,7 +26,6 @@ import { writeFileAtomic } from '../write-file.js';
 /** speed range used when neither --rpm nor the case's `sweep` key gives one */
 export const DEFAULT_SWEEP = { from: 3000, to: 9000, step: 250 } as const;
 /** mass imbalance above which a sweep warns [-] */
-const IMBALANCE_WARNING = 0.01;
 const CHART_WIDTH = 60;
 const CHART_HEIGHT = 12;
 
@@ -152,10 +152,10 @@ export function sweepWarnings(points: readonly SweepPoint[], maxCycles: number, 
       `warning: ${who}${bad.length} of ${points.length} points did not converge within ${maxCycles} cycles ` +
         `(${bad.map((p) => fix(p.rpm, 0)).join(', ')} rpm); their numbers are less certain (raise numerics.maxCycles)`,
     );
-  const leaky = points.filter((p) => Math.abs(p.massImbalance) > IMBALANCE_WARNING);
+  const leaky = points.filter((p) => !massBalanceOk(p.massImbalance));
   if (leaky.length > 0)
     out.push(
-      `warning: ${who}mass balance off by more than ${IMBALANCE_WARNING * 100} % at ${leaky.map((p) => fix(p.rpm, 0)).join(', ')} rpm ` +
+      `warning: ${who}mass balance off by more than ${MASS_IMBALANCE_LIMIT * 100} % at ${leaky.map((p) => fix(p.rpm, 0)).join(', ')} rpm ` +
         '(a finer numerics.meshSize or the conservative scheme helps)',
     );
   return out;
