@@ -5,27 +5,17 @@
 // createRequire banner (for CommonJS dependencies that call require), and
 // react-devtools-core (an optional Ink dependency) replaced by an empty stub.
 import { build } from 'esbuild';
-import { existsSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 
-/** Empty modules for optional imports: react-devtools-core, and src/ui until it exists. */
+/** An empty module for Ink's optional react-devtools-core import. */
 const stubs = {
   name: 'tractwave-stubs',
   setup(b) {
     b.onResolve({ filter: /^react-devtools-core$/ }, () => ({ path: 'react-devtools-core', namespace: 'stub' }));
-    b.onResolve({ filter: /\/ui\/index\.js$/ }, (args) => {
-      const tsx = join(args.resolveDir, args.path.replace(/\.js$/, '.tsx'));
-      const ts = join(args.resolveDir, args.path.replace(/\.js$/, '.ts'));
-      if (existsSync(tsx) || existsSync(ts)) return undefined; // the terminal view exists: bundle it
-      return { path: 'ui-absent', namespace: 'stub' };
-    });
-    b.onLoad({ filter: /.*/, namespace: 'stub' }, (args) => ({
-      contents: args.path === 'react-devtools-core' ? 'export default { connectToDevTools() {} };' : 'export {};',
-      loader: 'js',
-    }));
+    b.onLoad({ filter: /.*/, namespace: 'stub' }, () => ({ contents: 'export default { connectToDevTools() {} };', loader: 'js' }));
   },
 };
 

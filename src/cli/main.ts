@@ -77,26 +77,12 @@ function looksLikeCaseFile(arg: string): boolean {
   return /\.(ya?ml|json)$/i.test(arg) || arg.includes('/') || arg.includes('\\');
 }
 
-interface UiModule {
-  startUi?: (casePath: string) => Promise<number>;
-}
-
-async function importUi(): Promise<UiModule | undefined> {
-  try {
-    return (await import('../ui/index.js')) as UiModule;
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    if (code === 'ERR_MODULE_NOT_FOUND') return undefined;
-    throw e;
-  }
-}
-
 /** `tractwave [CASE]`: the interactive view. */
 async function interactive(argv: readonly string[], io: CliIo): Promise<number> {
   if (argv.length > 1) throw new CaseError(argv[1]!, 'unexpected argument (usage: tractwave [CASE], or tractwave <command> ...; see --help)', 'option');
   const given = argv[0];
   const file = given ?? defaultCasePath();
-  const loaded = await loadCase(file, { cwd: io.cwd }); // bad input: exit 2 before anything else
+  await loadCase(file, { cwd: io.cwd }); // bad input: exit 2 before anything else
   if (!(io.stdinIsTTY && io.stdoutIsTTY)) {
     io.stderr.write(
       'error: the interactive view needs a terminal (stdin and stdout are not a TTY); ' +
@@ -104,10 +90,9 @@ async function interactive(argv: readonly string[], io: CliIo): Promise<number> 
     );
     return 2;
   }
-  const ui = await importUi();
-  if (ui?.startUi) return ui.startUi(resolve(io.cwd, file));
-  io.stderr.write('note: the interactive view is not built in this version; showing the run summary instead\n');
-  return findCommand('run')!.run([loaded.file], io);
+  // imported here so that run, sweep and check never load Ink (start-up time)
+  const { startUi } = await import('../ui/index.js');
+  return startUi(resolve(io.cwd, file));
 }
 
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
