@@ -149,9 +149,11 @@ export class CharacteristicsScheme implements PipeScheme {
   private readonly u: Float64Array;
   private readonly p: Float64Array;
   private readonly A: Float64Array;
-  // limited slopes of λ, β, A per dx
-  private readonly dl: Float64Array;
-  private readonly db: Float64Array;
+  /** pressure function X = a/A per point [-] */
+  private readonly X: Float64Array;
+  // limited slopes of X, u, A per dx
+  private readonly dX: Float64Array;
+  private readonly du: Float64Array;
   private readonly dA: Float64Array;
   // face fluxes (times the face area) and face pressures, faces 0..n
   private readonly g0: Float64Array;
@@ -200,8 +202,9 @@ export class CharacteristicsScheme implements PipeScheme {
     this.u = new Float64Array(n);
     this.p = new Float64Array(n);
     this.A = new Float64Array(n);
-    this.dl = new Float64Array(n);
-    this.db = new Float64Array(n);
+    this.X = new Float64Array(n);
+    this.dX = new Float64Array(n);
+    this.du = new Float64Array(n);
     this.dA = new Float64Array(n);
     this.g0 = new Float64Array(n - 1);
     this.g1 = new Float64Array(n - 1);
@@ -266,9 +269,11 @@ export class CharacteristicsScheme implements PipeScheme {
     const ck = a[k]! + sign * u[k]!;
     let s = (ci * sg) / (1 + (ci - ck) * sg);
     s = s < 0 ? 0 : s > 1 ? 1 : s;
-    const af = a[i]! + s * (a[k]! - a[i]!);
+    const X = this.X;
+    const Xf = X[i]! + s * (X[k]! - X[i]!);
     const uf = u[i]! + s * (u[k]! - u[i]!);
     const Af = A[i]! + s * (A[k]! - A[i]!);
+    const af = Af * Xf;
     // J = a + G1·w with w = sign·u outward
     const src = this.commonSource(af, uf, i) - sign * this.friction(uf, i);
     const J = af + G1 * sign * uf + G1 * src * dt;
@@ -398,31 +403,23 @@ export class CharacteristicsScheme implements PipeScheme {
       this.u[i] = u;
       this.p[i] = p;
       this.a[i] = a;
-      this.A[i] = a * Math.pow(P_REF / p, INV_PEXP);
+      const X = Math.pow(p / P_REF, INV_PEXP);
+      this.X[i] = X;
+      this.A[i] = a / X;
       const c = (u < 0 ? -u : u) + a;
       if (c > cmax) cmax = c;
     }
     this.cmax = cmax;
   }
 
-  /** limited slopes of λ, β, A at the inner points (the end points hold the boundaries' states) */
+  /** limited slopes of X, u, A at the inner points (the end points hold the boundaries' states) */
   private slopes(): void {
     const n = this.n;
-    const { a, u, A, dl, db, dA } = this;
-    let lm = a[0]! + G1 * u[0]!;
-    let bm = a[0]! - G1 * u[0]!;
-    let l0 = a[1]! + G1 * u[1]!;
-    let b0 = a[1]! - G1 * u[1]!;
+    const { X, u, A, dX, du, dA } = this;
     for (let i = 1; i < n - 1; i++) {
-      const lp = a[i + 1]! + G1 * u[i + 1]!;
-      const bp = a[i + 1]! - G1 * u[i + 1]!;
-      dl[i] = vanLeer(l0 - lm, lp - l0);
-      db[i] = vanLeer(b0 - bm, bp - b0);
+      dX[i] = vanLeer(X[i]! - X[i - 1]!, X[i + 1]! - X[i]!);
+      du[i] = vanLeer(u[i]! - u[i - 1]!, u[i + 1]! - u[i]!);
       dA[i] = vanLeer(A[i]! - A[i - 1]!, A[i + 1]! - A[i]!);
-      lm = l0;
-      bm = b0;
-      l0 = lp;
-      b0 = bp;
     }
   }
 
@@ -452,24 +449,28 @@ export class CharacteristicsScheme implements PipeScheme {
     const a = this.a[i]!;
     const u = this.u[i]!;
     const A = this.A[i]!;
+    const X = this.X[i]!;
     const dA = this.dA[i]!;
+    // the changes of λ and β across the volume at fixed entropy, per dx
+    const dP = A * this.dX[i]! + G1 * this.du[i]!;
+    const dM = A * this.dX[i]! - G1 * this.du[i]!;
     const h = 0.5 * dt;
     // distance of each foot from the point, in dx: ½·(side − σ·c)
     const wA = 0.5 * (side - sigma * u);
     const wl = 0.5 * (side - sigma * (u + a));
     const wb = 0.5 * (side - sigma * (u - a));
     let Af = A + wA * dA;
-    const Al = A + wl * dA;
-    const Ab = A + wb * dA;
-    const common = this.commonSource(a, u, i);
     const G = this.friction(u, i);
     if (this.f > 0) {
       const au = u < 0 ? -u : u;
       const q = this.heat ? this.kf[i]! * au * CP * (this.tw - a * a * INV_GR) : 0;
       Af *= 1 + ((GM1 * (q + u * G)) / (2 * a * a)) * h;
     }
-    this.tl = a + G1 * u + wl * this.dl[i]! + (a * (Af - Al)) / Al + G1 * (common - G) * h;
-    this.tb = a - G1 * u + wb * this.db[i]! + (a * (Af - Ab)) / Ab + G1 * (common + G) * h;
+    const Xf = X + (wl * dP + wb * dM) / (2 * A);
+    const uf = u + (wl * dP - wb * dM) * INV_2G1;
+    const common = this.commonSource(a, u, i);
+    this.tl = Af * Xf + G1 * uf + G1 * (common - G) * h;
+    this.tb = Af * Xf - G1 * uf + G1 * (common + G) * h;
     this.tA = Af;
   }
 
