@@ -6,6 +6,7 @@
  */
 import { buildMesh } from './pipe/mesh.js';
 import { createPipeScheme } from './pipe/factory.js';
+import { characteristicsRangeIssue } from './pipe/moc.js';
 import { closedEnd } from './boundary/closed.js';
 import { OpenEnd } from './boundary/open.js';
 import type { Boundary } from './boundary/types.js';
@@ -21,6 +22,8 @@ export function runPipeExperiment(model: PipeExperimentModel): PipeExperimentRes
     heatTransfer: pipe.wallHeatTransfer,
     wallTemperature: pipe.wallTemperature,
   });
+  const beyond = numerics.scheme === 'characteristics' ? characteristicsRangeIssue(initial.left, initial.right) : undefined;
+  if (beyond) throw new SimulationError('invalid', `numerics.scheme: ${beyond}`);
   const n = mesh.n;
   scheme.setSplit(initial.split * pipe.length, initial.left, initial.right);
   const left: Boundary = ends.left === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.left.pressure, temperature: initial.left.temperature }, 0);
