@@ -25,7 +25,9 @@
 import { describe, expect, it } from 'vitest';
 import { buildMesh, type Mesh } from '../../src/core/pipe/mesh.js';
 import { createPipeScheme } from '../../src/core/pipe/factory.js';
-import { CharacteristicsScheme, createCharacteristicsScheme } from '../../src/core/pipe/moc.js';
+import { CharacteristicsScheme, characteristicsRangeIssue, createCharacteristicsScheme } from '../../src/core/pipe/moc.js';
+import { runPipeExperiment } from '../../src/core/pipe-experiment.js';
+import { SimulationError } from '../../src/core/engine.js';
 import type { GasState, PipeScheme } from '../../src/core/pipe/scheme.js';
 import { closedEnd } from '../../src/core/boundary/closed.js';
 import { R_AIR } from '../../src/core/gas.js';
@@ -156,5 +158,34 @@ describe('conservation in a closed pipe (characteristics scheme)', () => {
     drive(s, closedEnd, closedEnd, 0.003);
     expect(Math.abs(s.mass() / m0 - 1)).toBeLessThan(1e-12);
     expect(Math.abs(s.energy() / e0 - 1)).toBeLessThan(1e-12);
+  });
+});
+
+describe('the characteristics scheme keeps to the range it is checked for (moc.ts header)', () => {
+  const pipe = { length: 1, diameter: 0.05, meshSize: 0.01, wallFriction: false, friction: 0, wallHeatTransfer: false, wallTemperature: 300 };
+  const model = (left: GasState, right: GasState, scheme: 'characteristics' | 'conservative') => ({
+    name: 'split',
+    pipe,
+    ends: { left: 'closed', right: 'closed' } as const,
+    initial: { split: 0.5, left, right },
+    times: [0.001],
+    numerics: { courant: 0.9, scheme },
+  });
+  const still = (p: number, T = 300): GasState => ({ pressure: p, velocity: 0, temperature: T });
+  it.each([
+    ['pressure ratio 10⁴', still(1e5), still(10), 'pressure ratio of 1000'],
+    ['Mach 2.5', { pressure: 1e5, velocity: 2.5 * 347.2, temperature: 300 }, still(1e5), 'Mach 2, the left gas moves at Mach 2.5'],
+    ['Mach 1 at ratio 1000', still(1e5), { pressure: 100, velocity: -347.2, temperature: 300 }, 'Mach 0.5 at pressure ratios above 100'],
+  ])('refuses %s with a plain message naming numerics.scheme', (_label, left, right, message) => {
+    expect(() => runPipeExperiment(model(left, right, 'characteristics'))).toThrow(message);
+    expect(() => runPipeExperiment(model(left, right, 'characteristics'))).toThrow(SimulationError);
+    // the conservative scheme runs the same split
+    expect(runPipeExperiment(model(left, right, 'conservative')).snapshots).toHaveLength(1);
+  });
+  it('runs a split at the edge of the range (ratio 1000 at rest; ratio 100 with Mach 2 streams)', () => {
+    expect(characteristicsRangeIssue(still(1e5), still(100))).toBeUndefined();
+    expect(characteristicsRangeIssue({ pressure: 1e5, velocity: 2 * 347.2, temperature: 300 }, { pressure: 1e3, velocity: -2 * 347.2, temperature: 300 })).toBeUndefined();
+    const r = runPipeExperiment(model({ pressure: 1e5, velocity: 2 * 347.2, temperature: 300 }, { pressure: 1e3, velocity: -2 * 347.2, temperature: 300 }, 'characteristics'));
+    expect(r.snapshots[0]!.pressure.every((p) => p > 0)).toBe(true);
   });
 });
