@@ -149,6 +149,7 @@ const INV_PEXP = 1 / PEXP;
 const X_MIN = 1e-4;
 /** a compression by more than this pressure ratio at a face is a front, met by the jump conditions */
 const FRONT_RATIO = 2;
+const FRONT_X = Math.pow(FRONT_RATIO, 1 / PEXP);
 /** (γ−1)/(γ+1) */
 const G6 = (GAMMA - 1) / (GAMMA + 1);
 /** (γ+1)/(2γ) and (γ−1)/(2γ), shock speed (Toro 2009 eq. 4.52) */
@@ -188,20 +189,23 @@ export class CharacteristicsScheme implements PipeScheme {
   private readonly dX: Float64Array;
   private readonly du: Float64Array;
   private readonly dA: Float64Array;
+  // per point, the half-step source of λ and of β [m/s] and the path-line factor of A [-]
+  private readonly sl: Float64Array;
+  private readonly sb: Float64Array;
+  private readonly sA: Float64Array;
   // face fluxes (times the face area) and face pressures, faces 0..n
   private readonly g0: Float64Array;
   private readonly g1: Float64Array;
   private readonly g2: Float64Array;
   private readonly gp: Float64Array;
-  /** largest |u| + a over the points [m/s] */
-  private cmax = 0;
-  // traced face states of one side and the face result (scratch of a face)
-  private tl = 0;
-  private tb = 0;
-  private tA = 0;
-  private fX = 0;
-  private fu = 0;
-  private fA = 0;
+  /** [0] largest |u| + a over the points [m/s], [1] half the present step [s] (an array, not fields: no boxed doubles) */
+  private readonly st = new Float64Array(2);
+  /**
+   * scratch of a face: traced λ, β, A of its left side [0..2] and of its
+   * right side [3..5], and the face state X, u, A [6..8] (read and written
+   * here rather than passed, so a call that is not inlined boxes no doubles)
+   */
+  private readonly w = new Float64Array(9);
 
   constructor(
     readonly mesh: Mesh,
@@ -239,6 +243,9 @@ export class CharacteristicsScheme implements PipeScheme {
     this.dX = new Float64Array(n);
     this.du = new Float64Array(n);
     this.dA = new Float64Array(n);
+    this.sl = new Float64Array(n);
+    this.sb = new Float64Array(n);
+    this.sA = new Float64Array(n);
     this.g0 = new Float64Array(n - 1);
     this.g1 = new Float64Array(n - 1);
     this.g2 = new Float64Array(n - 1);
@@ -286,7 +293,8 @@ export class CharacteristicsScheme implements PipeScheme {
   }
 
   maxStableDt(courant: number): number {
-    return this.cmax > 0 ? (courant * this.mesh.dx) / this.cmax : Infinity;
+    const cmax = this.st[0]!;
+    return cmax > 0 ? (courant * this.mesh.dx) / cmax : Infinity;
   }
 
   incoming(side: Side, dt: number, out: Incoming): void {
@@ -319,18 +327,17 @@ export class CharacteristicsScheme implements PipeScheme {
     const n = this.n;
     const { a, u, g0, g1, g2, gp, Ff, rho, mom, ener } = this;
     const sigma = dt / this.mesh.dx;
+    this.st[1] = 0.5 * dt;
     this.slopes();
     // inner faces j = 1..n−3, between points j and j+1
     for (let j = 1; j < n - 2; j++) {
-      this.trace(j, sigma, dt, 1);
-      const lL = this.tl;
-      const bL = this.tb;
-      const AL = this.tA;
-      this.trace(j + 1, sigma, dt, -1);
-      this.meet(lL, bL, AL, this.tl, this.tb, this.tA);
-      const X = this.fX;
-      const uf = this.fu;
-      const af = this.fA * X;
+      const w = this.w;
+      this.trace(j, sigma, 1, 0);
+      this.trace(j + 1, sigma, -1, 3);
+      this.meet();
+      const X = w[6]!;
+      const uf = w[7]!;
+      const af = w[8]! * X;
       const pf = P_REF * powP(X);
       const rf = (GAMMA * pf) / (af * af);
       const m = rf * uf;
@@ -442,17 +449,42 @@ export class CharacteristicsScheme implements PipeScheme {
       const c = (u < 0 ? -u : u) + a;
       if (c > cmax) cmax = c;
     }
-    this.cmax = cmax;
+    this.st[0] = cmax;
   }
 
-  /** limited slopes of X, u, A at the inner points (the end points hold the boundaries' states) */
+  /**
+   * Limited slopes of X, u, A at the inner points (the end points hold the
+   * boundaries' states), and each point's sources over dt/2: G1·(common ∓ G)·dt/2
+   * for λ and β, and the path-line factor 1 + (γ−1)(q + u·G)/(2a²)·dt/2 for A.
+   */
   private slopes(): void {
     const n = this.n;
-    const { X, u, A, dX, du, dA } = this;
+    const { X, u, a, A, dX, du, dA, sl, sb, sA } = this;
+    const h = this.st[1]!;
+    const fr = this.f > 0;
+    const heat = this.heat;
+    const dlnF = this.mesh.dlnF;
     for (let i = 1; i < n - 1; i++) {
       dX[i] = vanLeer(X[i]! - X[i - 1]!, X[i + 1]! - X[i]!);
       du[i] = vanLeer(u[i]! - u[i - 1]!, u[i + 1]! - u[i]!);
       dA[i] = vanLeer(A[i]! - A[i - 1]!, A[i + 1]! - A[i]!);
+      const ai = a[i]!;
+      const ui = u[i]!;
+      let common = -ai * ui * dlnF[i]!;
+      let G = 0;
+      let fA = 1;
+      if (fr) {
+        const k = this.kf[i]!;
+        const au = ui < 0 ? -ui : ui;
+        G = k * ui * au;
+        const q = heat ? k * au * CP * (this.tw - ai * ai * INV_GR) : 0;
+        const e = GM1 * (q + ui * G);
+        common += e / ai;
+        fA = 1 + (e / (2 * ai * ai)) * h;
+      }
+      sl[i] = G1 * (common - G) * h;
+      sb[i] = G1 * (common + G) * h;
+      sA[i] = fA;
     }
   }
 
@@ -476,57 +508,60 @@ export class CharacteristicsScheme implements PipeScheme {
 
   /**
    * λ, β, A of volume i traced to its right face (side = 1) or its left
-   * face (side = −1) at t + dt/2, into tl, tb, tA (see the header).
+   * face (side = −1) at t + dt/2, into w[k..k+2] (see the header).
    */
-  private trace(i: number, sigma: number, dt: number, side: number): void {
+  private trace(i: number, sigma: number, side: number, k: number): void {
     const a = this.a[i]!;
     const u = this.u[i]!;
     const A = this.A[i]!;
-    const X = this.X[i]!;
-    const dA = this.dA[i]!;
+    const AdX = A * this.dX[i]!;
+    const Gdu = G1 * this.du[i]!;
     // the changes of λ and β across the volume at fixed entropy, per dx
-    const dP = A * this.dX[i]! + G1 * this.du[i]!;
-    const dM = A * this.dX[i]! - G1 * this.du[i]!;
-    const h = 0.5 * dt;
+    const dP = AdX + Gdu;
+    const dM = AdX - Gdu;
     // distance of each foot from the point, in dx: ½·(side − σ·c)
     const wA = 0.5 * (side - sigma * u);
     const wl = 0.5 * (side - sigma * (u + a));
     const wb = 0.5 * (side - sigma * (u - a));
-    let Af = A + wA * dA;
-    const G = this.friction(u, i);
-    if (this.f > 0) {
-      const au = u < 0 ? -u : u;
-      const q = this.heat ? this.kf[i]! * au * CP * (this.tw - a * a * INV_GR) : 0;
-      Af *= 1 + ((GM1 * (q + u * G)) / (2 * a * a)) * h;
-    }
-    const Xf = X + (wl * dP + wb * dM) / (2 * A);
+    const Af = (A + wA * this.dA[i]!) * this.sA[i]!;
+    const Xf = this.X[i]! + (wl * dP + wb * dM) / (2 * A);
     const uf = u + (wl * dP - wb * dM) * INV_2G1;
-    const common = this.commonSource(a, u, i);
-    this.tl = Af * Xf + G1 * uf + G1 * (common - G) * h;
-    this.tb = Af * Xf - G1 * uf + G1 * (common + G) * h;
-    this.tA = Af;
+    const w = this.w;
+    w[k] = Af * Xf + G1 * uf + this.sl[i]!;
+    w[k + 1] = Af * Xf - G1 * uf + this.sb[i]!;
+    w[k + 2] = Af;
   }
 
   /**
    * The state at a face from the traced left (λL, βL, AL) and right
-   * (λR, βR, AR) sides, into fX, fu, fA: where the two isentropes meet, or,
+   * (λR, βR, AR) sides in w[0..5], into w[6..8] (X, u, A): where the two isentropes meet, or,
    * for a strong front, across it by the jump conditions; sampled at the
    * face (Toro 2009 §4.5). See the header.
    */
-  private meet(lL: number, bL: number, AL: number, lR: number, bR: number, AR: number): void {
+  private meet(): void {
+    const w = this.w;
+    const lL = w[0]!;
+    const bL = w[1]!;
+    const AL = w[2]!;
+    const lR = w[3]!;
+    const bR = w[4]!;
+    const AR = w[5]!;
     const XL = (lL + bL) / (2 * AL);
     const uL = (lL - bL) * INV_2G1;
     const XR = (lR + bR) / (2 * AR);
     const uR = (lR - bR) * INV_2G1;
     // the two isentropes meet at X*, u*
-    let X = (lL + bR) / (AL + AR);
-    if (X < X_MIN) X = X_MIN;
+    // (Math.max, not `if (X < X_MIN) X = X_MIN`: a module constant on one branch boxes X)
+    let X = Math.max((lL + bR) / (AL + AR), X_MIN);
     let us = (lL - AL * X) * (1 / G1);
-    let ps = P_REF * powP(X);
-    const pL = P_REF * powP(XL);
-    const pR = P_REF * powP(XR);
-    const strong = ps > FRONT_RATIO * (pL < pR ? pL : pR);
+    // p* > FRONT_RATIO·min(pL, pR), in X (p ∝ X^PEXP)
+    const strong = X > FRONT_X * (XL < XR ? XL : XR);
+    let ps = 0;
+    let pL = 0;
+    let pR = 0;
     if (strong) {
+      pL = P_REF * powP(XL);
+      pR = P_REF * powP(XR);
       // a strong front: two-shock approximation (Toro 2009 §9.4.2), guess from PVRS (eq. 9.20)
       const aL = AL * XL;
       const aR = AR * XR;
@@ -537,65 +572,72 @@ export class CharacteristicsScheme implements PipeScheme {
       const gL = Math.sqrt(2 / ((GAMMA + 1) * rL) / (p0 + G6 * pL));
       const gR = Math.sqrt(2 / ((GAMMA + 1) * rR) / (p0 + G6 * pR));
       ps = (gL * pL + gR * pR - (uR - uL)) / (gL + gR);
-      const pMin = P_REF * powP(X_MIN);
-      if (ps < pMin) ps = pMin;
+      ps = Math.max(ps, P_REF * powP(X_MIN));
       us = 0.5 * (uL + uR) + 0.5 * ((ps - pR) * gR - (ps - pL) * gL);
       X = Math.pow(ps / P_REF, INV_PEXP);
     }
+    // the face state, written to w[6..8] at the end
+    let fX = X;
+    let fu = us;
+    let fA: number;
     if (us >= 0) {
       // the face sees the left gas
+      fA = AL;
       const head = uL - AL * XL;
       if (strong && ps > pL) {
-        // left front (Toro 2009 eqs. 4.50, 4.52)
+        // left front (Toro 2009 eqs. 4.52, 4.50): the face is ahead of it, or behind it
         const q = ps / pL;
-        const S = uL - AL * XL * Math.sqrt(GQ * q + GQM);
-        if (S >= 0) this.set(XL, uL, AL);
-        else this.set(X, us, this.shockedEntropy(X, ps, (GAMMA * pL) / (AL * AL * XL * XL), q));
-        return;
-      }
-      const tail = us - AL * X;
-      if (X <= XL ? head >= 0 : head + tail >= 0) this.set(XL, uL, AL);
-      else if (X > XL || tail <= 0) this.set(X, us, AL);
-      else {
-        // sonic point inside the left fan: u = a, λL kept
-        const as = lL / (1 + G1);
-        this.set(as / AL, as, AL);
+        if (uL - AL * XL * Math.sqrt(GQ * q + GQM) >= 0) {
+          fX = XL;
+          fu = uL;
+        } else fA = shockedEntropy(X, ps, (GAMMA * pL) / (AL * AL * XL * XL), q);
+      } else {
+        const tail = us - AL * X;
+        if (X <= XL ? head >= 0 : head + tail >= 0) {
+          fX = XL;
+          fu = uL;
+        } else if (X <= XL && tail > 0) {
+          // sonic point inside the left fan: u = a, λL kept
+          fu = lL / (1 + G1);
+          fX = fu / AL;
+        }
       }
     } else {
+      fA = AR;
       const head = uR + AR * XR;
       if (strong && ps > pR) {
         const q = ps / pR;
-        const S = uR + AR * XR * Math.sqrt(GQ * q + GQM);
-        if (S <= 0) this.set(XR, uR, AR);
-        else this.set(X, us, this.shockedEntropy(X, ps, (GAMMA * pR) / (AR * AR * XR * XR), q));
-        return;
-      }
-      const tail = us + AR * X;
-      if (X <= XR ? head <= 0 : head + tail <= 0) this.set(XR, uR, AR);
-      else if (X > XR || tail >= 0) this.set(X, us, AR);
-      else {
-        // sonic point inside the right fan: u = −a, βR kept
-        const as = bR / (1 + G1);
-        this.set(as / AR, -as, AR);
+        if (uR + AR * XR * Math.sqrt(GQ * q + GQM) <= 0) {
+          fX = XR;
+          fu = uR;
+        } else fA = shockedEntropy(X, ps, (GAMMA * pR) / (AR * AR * XR * XR), q);
+      } else {
+        const tail = us + AR * X;
+        if (X <= XR ? head <= 0 : head + tail <= 0) {
+          fX = XR;
+          fu = uR;
+        } else if (X <= XR && tail < 0) {
+          // sonic point inside the right fan: u = −a, βR kept
+          const as = bR / (1 + G1);
+          fu = -as;
+          fX = as / AR;
+        }
       }
     }
+    w[6] = fX;
+    w[7] = fu;
+    w[8] = fA;
   }
+}
 
-  /**
-   * Entropy level behind a front that raises the pressure from p_K to p_s
-   * (q = p_s/p_K) in gas of density ρ_K: ρ_s = ρ_K·(q + G6)/(G6·q + 1)
-   * (Toro 2009 eq. 4.50), a_s = √(γ·p_s/ρ_s), A_s = a_s/X_s.
-   */
-  private shockedEntropy(X: number, ps: number, rK: number, q: number): number {
-    const rs = (rK * (q + G6)) / (G6 * q + 1);
-    return Math.sqrt((GAMMA * ps) / rs) / X;
-  }
-
-  private set(X: number, u: number, A: number): void {
-    this.fX = X;
-    this.fu = u;
-    this.fA = A;
-  }
+/**
+ * Entropy level behind a front that raises the pressure from p_K to p_s
+ * (q = p_s/p_K) in gas of density ρ_K: ρ_s = ρ_K·(q + G6)/(G6·q + 1)
+ * (Toro 2009 eq. 4.50), a_s = √(γ·p_s/ρ_s), A_s = a_s/X_s.
+ */
+function shockedEntropy(X: number, ps: number, rK: number, q: number): number {
+  const rs = (rK * (q + G6)) / (G6 * q + 1);
+  return Math.sqrt((GAMMA * ps) / rs) / X;
 }
 
 /**
