@@ -33,6 +33,7 @@
  */
 import type { EngineModel } from '../core/model.js';
 import { soundSpeed } from '../core/gas.js';
+import { endCorrection as coreEndCorrection } from '../core/network/end-correction.js';
 
 export type OpenEndKind = 'unflanged' | 'flanged';
 
@@ -146,6 +147,25 @@ export function outputEstimate(
   return { torque, power: (torque * 2 * Math.PI * rpm) / 60 };
 }
 
+/**
+ * What the plenum's feed offers the air that rings through it: the effective
+ * neck length over area L′/S [1/m]. An orifice of radius r: L′ = 1.7·r (two
+ * flanged sides, Kinsler et al.); a snorkel: ∫dx/A over its sections plus the
+ * unflanged end corrections of its two open ends over their areas (the same
+ * corrections the simulation extends the snorkel by, core/network/end-correction.ts).
+ */
+export function feedInertance(inlet: Extract<EngineModel['inlet'], { kind: 'plenum' }>): number {
+  if (inlet.snorkel) {
+    const secs = inlet.snorkel.sections;
+    const d0 = secs[0]!.diameterStart;
+    const d1 = secs[secs.length - 1]!.diameterEnd;
+    const end = (d: number) => coreEndCorrection('unflanged', d) / ((Math.PI / 4) * d * d);
+    return runnerLengthOverArea(secs) + end(d0) + end(d1);
+  }
+  const r = (inlet.feedDiameter ?? 0) / 2;
+  return (1.7 * r) / (Math.PI * r * r);
+}
+
 /** ∫dx/A over the runner sections [1/m] (exact for cones: L/(π r₁ r₂)); the neck inertance per unit density */
 export function runnerLengthOverArea(sections: readonly { length: number; diameterStart: number; diameterEnd: number }[]): number {
   let s = 0;
@@ -187,10 +207,7 @@ export function caseEstimates(
   const lOverA = runnerLengthOverArea(sections);
   const helmholtz = helmholtzIntake(a, 1 / lOverA, 1, swept, model.engine.compressionRatio);
   let plenumFrequency: number | null = null;
-  if (model.inlet.kind === 'plenum') {
-    const r = model.inlet.feedDiameter / 2;
-    plenumFrequency = helmholtzResonator(a, Math.PI * r * r, model.inlet.volume, 1.7 * r);
-  }
+  if (model.inlet.kind === 'plenum') plenumFrequency = (a / (2 * Math.PI)) * Math.sqrt(1 / (model.inlet.volume * feedInertance(model.inlet)));
   return {
     soundSpeed: a,
     runnerLength: length,

@@ -42,7 +42,11 @@ export function checkReport(loaded: LoadedCase): string {
   s += row('runner volume', `${cc(vr)}  (${fix(vr / vd, 2)} x displacement)`);
   s += row('entry loss, friction', `K ${fix(m.runner.entryLoss, 2)}, Fanning f ${m.runner.friction}${m.runner.heatTransfer ? ', wall heat transfer on' : ''}`);
   if (m.inlet.kind === 'plenum')
-    s += row('plenum', `${fix(m.inlet.volume * 1000, 2)} L (${fix(m.inlet.volume / vd, 1)} x displ.), feed ${mm(m.inlet.feedDiameter)}, Cd ${m.inlet.feedCd}`);
+    s += row(
+      'plenum',
+      `${fix(m.inlet.volume * 1000, 2)} L (${fix(m.inlet.volume / vd, 1)} x displ.), ` +
+        (m.inlet.snorkel ? `fed by a snorkel ${mm(totalLength(m.inlet.snorkel.sections), 0)} long` : `feed ${mm(m.inlet.feedDiameter ?? 0)}, Cd ${m.inlet.feedCd}`),
+    );
   else s += row('inlet', 'open to the ambient air');
 
   s += `\nhand estimates: rules of thumb, not the simulation (a = ${fix(a, 1)} m/s at ${fix(m.ambient.temperature - 273.15, 1)} °C)\n`;
