@@ -6,7 +6,8 @@
  * Quarter-wave runner (closed at the valve, open at the upstream end):
  *   f₁ = a / (4 (L + δ))                       Kinsler et al., Fundamentals of Acoustics
  *   δ = 0.6133 r unflanged open end            Levine & Schwinger, Phys. Rev. 73 (1948)
- *   δ ≈ 0.82 r flanged open end                Norris & Sheng, J. Sound Vib. 135 (1989) (from memory)
+ *   δ ≈ 0.8216 r flanged open end              Norris & Sheng, J. Sound Vib. 135 (1989) (from memory)
+ * (the same table the simulation extends its open ends by: core/network/end-correction.ts)
  *
  * Tuned speeds, the convention used here: the wave order k is the number of
  * quarter-wave periods in one four-stroke cycle (720°), k = f₁·120/N, so the
@@ -37,8 +38,9 @@ import { endCorrection as coreEndCorrection } from '../core/network/end-correcti
 
 export type OpenEndKind = 'unflanged' | 'flanged';
 
-/** open-end correction coefficients δ/r */
-export const END_CORRECTION = { unflanged: 0.6133, flanged: 0.82 } as const;
+/** open-end correction coefficients δ/r (the core's own, so estimates and simulation agree) */
+export { END_CORRECTION } from '../core/network/end-correction.js';
+import { END_CORRECTION } from '../core/network/end-correction.js';
 
 /** open-end correction δ [m] of a pipe of radius r [m] */
 export function endCorrection(radius: number, kind: OpenEndKind = 'unflanged'): number {

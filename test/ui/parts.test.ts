@@ -11,7 +11,7 @@ import { fieldValues } from '../../src/ui/case-session.js';
 import { shownPipe } from '../../src/ui/app.js';
 import { runnerScreen, reversedMap } from '../../src/ui/runner-screen.js';
 import { valveScreen } from '../../src/ui/valve-screen.js';
-import { initialState, reduce, type PointShown } from '../../src/ui/state.js';
+import { initialState, reduce, type PointShown, type UiState } from '../../src/ui/state.js';
 import { keyToAction } from '../../src/ui/keys.js';
 import { GLYPH } from '../../src/ui/chart.js';
 
@@ -26,7 +26,7 @@ async function point(file: string): Promise<PointShown> {
 describe('the Runner view shows every pipe of the case', () => {
   it('↑ and ↓ pick the pipe; the exhaust pipe is drawn with its valve end at the top', async () => {
     const p = await point('cases/enduro-single.yaml');
-    let s = { ...initialState({ values: { rpm: 7000 }, sweepPlan: { rpms: [7000], band: { from: 6000, to: 8000 } }, suggestedSavePath: 'x.yaml' }), view: 'runner' as const, point: p };
+    let s: UiState = { ...initialState({ values: { rpm: 7000 }, sweepPlan: { rpms: [7000], band: { from: 6000, to: 8000 } }, suggestedSavePath: 'x.yaml' }), view: 'runner', point: p };
     const down = keyToAction('', { downArrow: true }, s);
     expect(down).toEqual({ type: 'pipe', by: 1 });
     s = reduce(s, down!);
