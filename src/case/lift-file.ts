@@ -124,3 +124,21 @@ export function liftProfile(log: LiftLog): LiftProfile {
     table: pts.map((p) => ({ x: (p.theta - open) / D, y: p.lift / peak.lift })),
   };
 }
+
+/** The logged valve lift (after lash) [m] at each whole crank degree θ = 0..719, linear between rows; NaN where the log does not reach. */
+export function liftByDegree(log: LiftLog): Float64Array {
+  const out = new Float64Array(720).fill(Number.NaN);
+  const { crank, logged } = log;
+  const first = crank[0]!;
+  const last = crank[crank.length - 1]!;
+  let k = 0;
+  for (let a = Math.ceil(first); a <= last; a++) {
+    while (k < crank.length - 2 && crank[k + 1]! < a) k++;
+    const t0 = crank[k]!;
+    const t1 = crank[k + 1]!;
+    const f = t1 > t0 ? (a - t0) / (t1 - t0) : 0;
+    const v = logged[k]! + f * (logged[k + 1]! - logged[k]!);
+    out[((a % 720) + 720) % 720] = Math.max(0, v - log.lash);
+  }
+  return out;
+}

@@ -25,7 +25,7 @@
  * Every problem is a CaseError naming the case key, or the file with its row
  * and column (exit 2).
  */
-import { dirname, isAbsolute, join, resolve } from 'node:path';
+import { dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
 import type { BenchSetup } from '../core/flow-bench.js';
 import { CaseError } from './errors.js';
 import { readDataFileSync } from './csv.js';
@@ -168,4 +168,34 @@ export function attachCaseFiles(c: Case, logs: Partial<Record<ValveSide, LiftLog
     files.trace = { log, byDegree: traceByDegree(log, { ambient: c.ambient.pressure, tdcOffset: t.tdcOffset }), sensorAt: t.sensorAt, tdcOffset: t.tdcOffset };
   }
   return { case: out, files };
+}
+
+/** The case keys that name files (read relative to the case file). */
+export const CASE_FILE_KEYS: readonly (readonly string[])[] = [
+  ['intake', 'liftFile'],
+  ['intake', 'flowFile'],
+  ['exhaust', 'liftFile'],
+  ['exhaust', 'flowFile'],
+  ['measured'],
+  ['measuredTrace', 'file'],
+];
+
+/**
+ * The file keys of raw case data whose relative paths must change when the
+ * case is written to `toCaseFile` instead of `fromCaseFile` (so they still
+ * name the same files), with their new values.
+ */
+export function movedFileKeys(data: Record<string, unknown>, fromCaseFile: string, toCaseFile: string): { path: string[]; value: string }[] {
+  const from = dirname(resolve(fromCaseFile));
+  const to = dirname(resolve(toCaseFile));
+  if (from === to) return [];
+  const out: { path: string[]; value: string }[] = [];
+  for (const path of CASE_FILE_KEYS) {
+    let v: unknown = data;
+    for (const k of path) v = v !== null && typeof v === 'object' ? (v as Record<string, unknown>)[k] : undefined;
+    if (typeof v !== 'string' || v.trim() === '' || isAbsolute(v)) continue;
+    const moved = relative(to, resolve(from, v)) || '.';
+    if (moved !== v) out.push({ path: [...path], value: moved.split(sep).join('/') });
+  }
+  return out;
 }

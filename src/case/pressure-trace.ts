@@ -7,7 +7,7 @@
  *
  * Crank angles are θ as in the model (0 = TDC at the start of the intake
  * stroke) after adding the logger's TDC offset: θ = crank_deg + tdcOffset
- * (a logger whose TDC mark sits 4° early is corrected with a tdcOffset of 4).
+ * (a logger whose TDC mark comes 4° early reads 4° too much: tdcOffset −4).
  * A gauge pressure is made absolute with the case's ambient pressure.
  *
  * The log must cover at least one whole cycle (720°, counting one sample
