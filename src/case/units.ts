@@ -11,7 +11,7 @@
  * Angles and speeds stay in the trade's units (degrees of crank, rpm): the
  * core works in those.
  *
- * Exact factors (NIST SP 811, 2008, Appendix B): 1 in = 0.0254 m; 1 ft = 12 in;
+ * Exact factors (NIST SP 811, 2008, Appendix B): 1 in = 0.0254 m;
  * 1 in³ = 16.387064 cm³; 1 psi = 6894.757293168 Pa (lbf/in² with
  * g_n = 9.80665 m/s², 1 lb = 0.45359237 kg); 1 bar = 1e5 Pa; conventional
  * inch of water = 0.0254 m · 1000 kg/m³ · 9.80665 m/s² = 249.08891 Pa;
@@ -55,7 +55,6 @@ export const UNITS: Readonly<Record<string, UnitDef>> = {
   cm: per('length', 100),
   m: scale('length', 1),
   in: scale('length', INCH),
-  ft: scale('length', 12 * INCH),
   // volume
   cc: per('volume', 1e6),
   cm3: per('volume', 1e6),
