@@ -15,9 +15,12 @@
  * at the valve), after the same light smoothing (a centred moving average
  * over SMOOTH_DEGREES, so a logger's noise does not count as a peak; it
  * moves no peak of a smooth trace by more than a fraction of a degree):
- *   - the last compression peak before IVC, its crank angle and its rise
- *     above the reference pressure; `lateBy` = θ_measured − θ_model
- *     (positive: the measured pulse comes later);
+ *   - the model's last compression peak before IVC, and the measured
+ *     compression peak nearest to it (within half a ringing period: the
+ *     same pulse, even when it comes after IVC), their crank angles and
+ *     rises above the reference pressure; `lateBy` = θ_measured − θ_model
+ *     (positive: the measured pulse comes later); a peak is the largest
+ *     sample within ±PEAK_HALF_WINDOW degrees, refined by a parabola;
  *   - the closed-valve ringing frequency, from the spacing of the crossings
  *     of its own mean between IVC and IVO (null when it does not ring clearly);
  *   - the pressure at IVO and at IVC (unsmoothed);
@@ -26,7 +29,7 @@
  * AGREE_DEGREES of each other (our own threshold, not a standard).
  */
 import type { EngineModel, PointResult } from '../core/model.js';
-import { pulseTiming, type PressurePeak } from './pulse.js';
+import { PEAK_HALF_WINDOW, pulseTiming, type PressurePeak } from './pulse.js';
 
 /** width of the smoothing window [deg] */
 export const SMOOTH_DEGREES = 5;
@@ -104,14 +107,52 @@ function atAngle(a: ArrayLike<number>, theta: number): number {
 
 const deg = (d: number) => `${Math.round(Math.abs(d))}°`;
 
+function fold(d: number): number {
+  let x = ((d % 720) + 720) % 720;
+  if (x > 360) x -= 720;
+  return x;
+}
+
+/** The compression peak of a per-degree signal nearest to θ `near`, within `within` degrees, above `floor`. */
+export function nearestPeak(sig: ArrayLike<number>, near: number, within: number, floor: number, reference: number, ivc: number): PressurePeak | null {
+  const n = sig.length;
+  const at = (k: number) => sig[((k % n) + n) % n]!;
+  let best: PressurePeak | null = null;
+  const c0 = Math.round(near);
+  const span = Math.ceil(within);
+  for (let d = -span; d <= span; d++) {
+    const k = c0 + d;
+    const v = at(k);
+    if (!(v > floor)) continue;
+    let peak = true;
+    for (let j = 1; j <= PEAK_HALF_WINDOW && peak; j++) if (at(k - j) > v || at(k + j) >= v) peak = false;
+    if (!peak) continue;
+    const ym = at(k - 1);
+    const yp = at(k + 1);
+    const curv = ym - 2 * v + yp;
+    const shift = curv < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (ym - yp)) / curv)) : 0;
+    const crank = ((k + shift) % 720 + 720) % 720;
+    if (Math.abs(fold(crank - near)) > within) continue;
+    const value = v - 0.25 * (ym - yp) * shift;
+    if (!best || Math.abs(fold(crank - near)) < Math.abs(fold(best.crank - near)))
+      best = { crank, offsetFromIvc: fold(crank - ivc), pressure: value, pressureAboveReference: value - reference };
+  }
+  return best;
+}
+
 /** Compare a measured trace (per degree, absolute [Pa]) with the model at the sensor. */
 export function compareTrace(result: PointResult, model: EngineModel, measured: ArrayLike<number>, sensorAt = 0): TraceComparison {
   const modelAt = modelPressureAt(result, sensorAt);
   const meas = Float64Array.from(measured);
   const a = readSignal(result, model, smoothPeriodic(modelAt));
   const b = readSignal(result, model, smoothPeriodic(meas));
+
   const pm = a.lastPeakBeforeIvc;
-  const pq = b.lastPeakBeforeIvc;
+  // the same pulse in the measured trace: its peak nearest the model's, within half a ringing period
+  const smoothed = smoothPeriodic(meas);
+  const pq = pm
+    ? nearestPeak(smoothed, pm.crank, a.ringingPeriodDegrees / 2, a.referencePressure * 1.003, a.referencePressure, result.events.ivc)
+    : b.lastPeakBeforeIvc;
   let lateBy: number | null = null;
   if (pm && pq) {
     let d = pq.crank - pm.crank;
