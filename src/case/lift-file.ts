@@ -75,10 +75,11 @@ export function parseLiftLog(text: string, file: string, lash = 0): LiftLog {
   const span = crank[crank.length - 1]! - crank[0]!;
   if (!(span < 720)) throw cellError(file, last.row, angleCol, `the log spans ${Number(span.toPrecision(6))} crank degrees; one lobe lies within one cycle (720°)`);
   const mm = (m: number) => `${Number((m * 1000).toPrecision(6))} mm`;
+  const base = lash > 0 ? `at or below the lash ${mm(lash)}` : 'zero lift';
   if (logged[0]! > lash)
-    throw cellError(file, rows[0]!, liftCol, `the log must start on the base circle (at or below the lash ${mm(lash)}), got ${mm(logged[0]!)}: log the whole lobe`);
+    throw cellError(file, rows[0]!, liftCol, `the log must start on the base circle (${base}), got ${mm(logged[0]!)}: log the whole lobe`);
   if (logged[logged.length - 1]! > lash)
-    throw cellError(file, last.row, liftCol, `the log must end on the base circle (at or below the lash ${mm(lash)}), got ${mm(logged[logged.length - 1]!)}: log the whole lobe`);
+    throw cellError(file, last.row, liftCol, `the log must end on the base circle (${base}), got ${mm(logged[logged.length - 1]!)}: log the whole lobe`);
   if (!logged.some((v) => v > lash))
     throw cellError(file, t.headerRow, liftCol, `the valve never lifts: every logged lift is at or below the lash (${mm(lash)})`);
   return { file, crank, logged, rows, lash, columns: { angle: angleCol, lift: liftCol } };
