@@ -81,7 +81,13 @@ interface SeriesStyle {
   shape: string;
 }
 
-function seriesOf(data: ReportData): SeriesStyle[] {
+/** What the speed charts read of the report data (a sweep alone has no compared design). */
+export type CurveInput = Pick<ReportData, 'rpms' | 'band' | 'curve' | 'estimates' | 'measured'> & {
+  design: { name: string };
+  compare?: { design: { name: string }; curve: ReportData['curve'] } | undefined;
+};
+
+function seriesOf(data: CurveInput): SeriesStyle[] {
   const s: SeriesStyle[] = [{ name: data.design.name, colour: COLOURS.blue, dash: [1, 0], shape: 'circle' }];
   if (data.compare) {
     const name = data.compare.design.name === data.design.name ? `${data.compare.design.name} (compared)` : data.compare.design.name;
@@ -146,7 +152,7 @@ function curveLayers(rows: Json[], measured: Json[], series: SeriesStyle[], yFie
   return layers;
 }
 
-function speedAxis(data: ReportData, title = true): Json {
+function speedAxis(data: CurveInput, title = true): Json {
   const lo = data.rpms[0]!;
   const hi = data.rpms[data.rpms.length - 1]!;
   return {
@@ -159,7 +165,7 @@ function speedAxis(data: ReportData, title = true): Json {
 }
 
 /** ηv against speed: band, band mean, best speed, tuned speeds, compared design, measured ηv. */
-export function speedVeChart(data: ReportData): ChartSpec {
+export function speedVeChart(data: CurveInput): ChartSpec {
   const series = seriesOf(data);
   const rows: Json[] = data.curve.points.map((p) => ({ rpm: p.rpm, ve: p.volumetricEfficiency * 100, series: series[0]!.name }));
   if (data.compare) for (const p of data.compare.curve.points) rows.push({ rpm: p.rpm, ve: p.volumetricEfficiency * 100, series: series[1]!.name });

@@ -10,7 +10,9 @@ import { performance } from 'node:perf_hooks';
 import { CaseError } from '../../case/errors.js';
 import { loadMeasuredSheet, type MeasuredSheet } from '../../case/measured.js';
 import type { LoadedCase } from '../../case/load.js';
-import { buildReport, gatherReport, UNIT_SYSTEMS, type ReportDesign, type UnitSystem } from '../../report/index.js';
+// the report modules (and vega) are loaded only when a report is made: other commands start faster
+import type { ReportDesign } from '../../report/gather.js';
+import { UNIT_SYSTEMS, type UnitSystem } from '../../report/units.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec, type ParsedArgs } from '../args.js';
 import { parseRpm, SET_OPTION, type Command } from '../command.js';
 import { fix } from '../format.js';
@@ -149,6 +151,7 @@ examples
     const band = chooseBand(args, loaded.case, grid);
     const assumptions = assumptionsOf(loaded.case);
 
+    const { buildReport, gatherReport } = await import('../../report/index.js');
     const bar = progress(io, 'report');
     const t0 = performance.now();
     let data;
