@@ -43,7 +43,7 @@ export function compactSvg(svg: string, crisp = false): string {
   const out = svg
     .replace(/ (fill|stroke)="rgb\((\d+), ?(\d+), ?(\d+)\)"/g, (_all, name: string, r: string, g: string, b: string) => ` ${name}="#${hex(r)}${hex(g)}${hex(b)}"`)
     .replace(/ (d|transform)="([^"]*)"/g, (_all, name: string, value: string) => ` ${name}="${value.replace(/-?\d+\.\d{3,}(?:e[-+]?\d+)?/g, round)}"`);
-  return crisp ? out.replace(/^<svg /, '<svg shape-rendering="crispEdges" ') : out;
+  return crisp ? out.replace(/^(<svg [^>]*?)( class="marks")/, '$1$2 shape-rendering="crispEdges"') : out;
 }
 
 /** Render the charts one after another (vega's rendering is single-threaded anyway). */

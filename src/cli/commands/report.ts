@@ -3,7 +3,8 @@
  * the design, the speed curves, the operating points and the mass balance
  * (src/report builds it; this file reads the options and writes the files).
  */
-import { existsSync, statSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { closeSync, existsSync, openSync, statSync, unlinkSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
@@ -65,7 +66,11 @@ export function parseAt(args: ParsedArgs): number[] {
   return out;
 }
 
-/** A file we may write: its folder exists, it is not a folder, and it is new unless --force. Checked before any simulation. */
+/**
+ * A file we may write: its folder exists and takes new files (probed with an
+ * empty temporary file), it is not a folder, and it is new unless --force.
+ * Checked before any simulation, so a bad target costs no waiting.
+ */
 export function checkTarget(file: string, option: string, io: CliIo, force: boolean): void {
   const full = resolve(io.cwd, file);
   const dir = dirname(full);
@@ -73,6 +78,14 @@ export function checkTarget(file: string, option: string, io: CliIo, force: bool
   if (existsSync(full)) {
     if (statSync(full).isDirectory()) throw new CaseError(option, `'${file}' is a folder, not a file`, 'option');
     if (!force) throw new CaseError(option, `'${file}' already exists; add --force to overwrite it`, 'option');
+  }
+  const probe = join(dir, `.tractwave-probe-${process.pid}-${randomBytes(4).toString('hex')}.tmp`);
+  try {
+    closeSync(openSync(probe, 'wx'));
+    unlinkSync(probe);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code ?? String(e);
+    throw new CaseError(option, `cannot write in the folder of '${file}' (${code})`, 'option');
   }
 }
 
@@ -139,6 +152,10 @@ examples
       const full = resolve(io.cwd, svgDir);
       if (existsSync(full) && !statSync(full).isDirectory()) throw new CaseError('--svg', `'${svgDir}' is a file, not a folder`, 'option');
       if (!existsSync(dirname(full))) throw new CaseError('--svg', `the folder above '${svgDir}' does not exist`, 'option');
+      // the charts whose names are known before the sweep (the best speed's come after it)
+      if (existsSync(full))
+        for (const name of ['speed-ve', 'speed-output', 'mass-balance', ...at.flatMap((r) => [`valve-${fix(r, 0)}rpm`, `runner-${fix(r, 0)}rpm`])])
+          checkTarget(join(svgDir, `${name}.svg`), '--svg', io, force);
     }
 
     const loaded = await loadForSweep(file!, args, io);
