@@ -80,6 +80,7 @@ figure svg { display: block; width: 100%; height: auto; }
 figcaption { font-size: 9pt; color: var(--muted); margin-top: 0.5mm; }
 .verdict { font-size: 11pt; font-weight: 600; border: 1.5px solid var(--ink); padding: 1.5mm 2.5mm; margin: 1mm 0 2mm; }
 .verdict .effect { text-transform: uppercase; letter-spacing: 0.04em; margin-right: 1.5mm; }
+.verdict .effect::after { content: " —"; }
 .note { font-size: 9pt; color: var(--muted); }
 ul.facts { margin: 1mm 0 2mm; padding-left: 5mm; }
 ul.facts li { margin: 0.3mm 0; }
