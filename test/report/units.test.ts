@@ -19,7 +19,7 @@ describe('imperial display units (NIST SP 811, Appendix B)', () => {
     ['power', 7.456999e2, 1, 'horsepower (550 ft·lbf/s) = 7.456999 × 10² W (B.8)'],
     ['mass', 6.479891e-5, 1, 'grain = 6.479891 × 10⁻⁵ kg exactly (B.8)'],
     ['massFlow', 0.45359237 / 60, 1, 'pound per minute = 0.45359237 kg / 60 s (B.8: pound avoirdupois)'],
-  ] as const)('%s: %s SI is %s (%s)', (q, si, shown) => {
+  ] as const)('%s: %s SI is %s (%s)', (q, si, shown, _source) => {
     expect(imp.num(q, si)).toBeCloseTo(shown, 5);
   });
 

@@ -3,8 +3,7 @@
  * the design, the speed curves, the operating points and the mass balance
  * (src/report builds it; this file reads the options and writes the files).
  */
-import { randomBytes } from 'node:crypto';
-import { closeSync, existsSync, openSync, statSync, unlinkSync } from 'node:fs';
+import { existsSync, statSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
@@ -19,6 +18,7 @@ import { parseRpm, SET_OPTION, type Command } from '../command.js';
 import { fix } from '../format.js';
 import type { CliIo } from '../io.js';
 import { packageVersion } from '../package-root.js';
+import { checkTarget } from '../target.js';
 import { writeFileAtomic } from '../write-file.js';
 import {
   assumptionsOf,
@@ -64,29 +64,6 @@ export function parseAt(args: ParsedArgs): number[] {
       out.push(parseRpm(part.trim(), '--at'));
     }
   return out;
-}
-
-/**
- * A file we may write: its folder exists and takes new files (probed with an
- * empty temporary file), it is not a folder, and it is new unless --force.
- * Checked before any simulation, so a bad target costs no waiting.
- */
-export function checkTarget(file: string, option: string, io: CliIo, force: boolean): void {
-  const full = resolve(io.cwd, file);
-  const dir = dirname(full);
-  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new CaseError(option, `the folder of '${file}' does not exist`, 'option');
-  if (existsSync(full)) {
-    if (statSync(full).isDirectory()) throw new CaseError(option, `'${file}' is a folder, not a file`, 'option');
-    if (!force) throw new CaseError(option, `'${file}' already exists; add --force to overwrite it`, 'option');
-  }
-  const probe = join(dir, `.tractwave-probe-${process.pid}-${randomBytes(4).toString('hex')}.tmp`);
-  try {
-    closeSync(openSync(probe, 'wx'));
-    unlinkSync(probe);
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code ?? String(e);
-    throw new CaseError(option, `cannot write in the folder of '${file}' (${code})`, 'option');
-  }
 }
 
 function designOf(loaded: LoadedCase, file: string): ReportDesign {

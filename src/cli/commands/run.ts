@@ -7,7 +7,7 @@ import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../ar
 import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
 import { writeFileAtomic } from '../write-file.js';
-import { checkTarget } from './report.js';
+import { checkTarget } from '../target.js';
 
 const OPTIONS: OptionSpec[] = [
   RPM_OPTION,

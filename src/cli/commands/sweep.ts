@@ -22,7 +22,7 @@ import { SET_OPTION, type Command } from '../command.js';
 import { fix, table, wrap } from '../format.js';
 import type { CliIo } from '../io.js';
 import { writeFileAtomic } from '../write-file.js';
-import { checkTarget } from './report.js';
+import { checkTarget } from '../target.js';
 
 /** speed range used when neither --rpm nor the case's `sweep` key gives one */
 export const DEFAULT_SWEEP = { from: 3000, to: 9000, step: 250 } as const;
