@@ -141,3 +141,12 @@ describe('report --units imperial, --compare, --measured', () => {
     expect(html).toContain('data-key="compare.volumetricEfficiency"');
   });
 });
+
+describe('help', () => {
+  it.each(['report', 'run', 'sweep'])('%s --help fits 80 columns and names --svg', async (command) => {
+    const r = await cli([command, '--help']);
+    expect(r.code).toBe(0);
+    for (const line of r.out.split('\n')) expect([...line].length, line).toBeLessThanOrEqual(80);
+    expect(r.out).toContain('--svg');
+  });
+});

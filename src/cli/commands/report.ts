@@ -78,10 +78,10 @@ export function stamp(d: Date): string {
 export const reportCommand: Command = {
   name: 'report',
   summary: 'one self-contained HTML file with the charts: curves, valve traces, runner map, mass balance',
-  help: `usage: tractwave report CASE --out FILE.html [--rpm FROM:TO:STEP] [--band LO:HI]
-                        [--at RPM ...] [--compare OTHER.yaml] [--measured FILE]
-                        [--units metric|imperial] [--svg DIR] [--set path=value ...]
-                        [--jobs N] [--force]
+  help: `usage: tractwave report CASE --out FILE.html
+         [--rpm FROM:TO:STEP] [--band LO:HI] [--at RPM ...]
+         [--compare OTHER.yaml] [--measured FILE] [--units metric|imperial]
+         [--svg DIR] [--set path=value ...] [--jobs N] [--force]
 
 Writes one HTML file that tells the story of the design: the case with units
 and the network of parts in one line; ηv, estimated torque and power against
@@ -110,8 +110,10 @@ existing files are kept unless --force).
 
 examples
   tractwave report cases/demo.yaml --out demo.html
-  tractwave report cases/demo.yaml --at 5000 --compare cases/airbox-single.yaml --out both.html
-  tractwave report cases/kart-single.yaml --units imperial --svg slides --out kart.html
+  tractwave report cases/demo.yaml --out demo.html --at 5000 \\
+      --compare cases/airbox-single.yaml
+  tractwave report cases/kart-single.yaml --units imperial --svg slides \\
+      --out kart.html
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
