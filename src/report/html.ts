@@ -11,7 +11,8 @@
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import type { SweepPoint } from '../analysis/sweep.js';
 import type { OperatingPoint, ReportData } from './gather.js';
-import { networkLine } from './network-line.js';
+import { pipeSize, resonatorWords } from '../analysis/network-line.js';
+import { lineUnits, networkLine } from './network-line.js';
 import type { RenderedChart } from './render.js';
 import { fixed, units, type ReportQuantity, type UnitSystem, type Units } from './units.js';
 
@@ -114,6 +115,8 @@ function caseTable(data: ReportData, u: Units): string {
   const row = (label: string, value: string) => rows.push(`<tr><th>${esc(label)}</th><td>${esc(value)}</td></tr>`);
   const q = (label: string, qty: ReportQuantity, si: number, d?: number) => row(label, u.text(qty, si, d));
   const swept = (Math.PI / 4) * c.engine.bore ** 2 * c.engine.stroke;
+  const lu = lineUnits(u);
+  const size = `length × diameter [${u.unit('length').label}]`;
   group('Engine');
   q('bore', 'length', c.engine.bore);
   q('stroke', 'length', c.engine.stroke);
@@ -142,6 +145,7 @@ function caseTable(data: ReportData, u: Units): string {
     if (side === 'exhaust') {
       q('back pressure', 'pressure', c.exhaust.backPressure);
       q('gas temperature', 'temperature', c.exhaust.gasTemperature);
+      if (m.exhaust.pipe) row(`exhaust pipe, ${size}`, pipeSize(m.exhaust.pipe.sections, lu));
     }
   }
   group('Runner (upstream end first)');
@@ -153,13 +157,18 @@ function caseTable(data: ReportData, u: Units): string {
   row('entry loss coefficient K', fixed(c.runner.entryLoss, 2));
   row('wall friction (Fanning f)', fixed(c.runner.friction, 4));
   row('wall heat transfer', c.runner.heatTransfer ? `on, wall ${u.text('temperature', m.runner.wallTemperature)}` : 'off');
+  for (const r of resonatorWords(m, lu)) row(`side resonator (sizes in ${u.unit('length').label})`, r);
   group('Inlet');
-  if (c.inlet.kind === 'plenum') {
-    row('runner draws from', 'a plenum (airbox)');
-    q('plenum volume', 'volume', c.inlet.volume);
-    q('feed diameter', 'length', c.inlet.feedDiameter);
-    row('feed discharge coefficient', fixed(c.inlet.feedCd, 2));
+  if (m.inlet.kind === 'plenum') {
+    row('runner draws from', m.inlet.snorkel ? 'an airbox fed by a snorkel' : 'a plenum (airbox)');
+    q('plenum volume', 'volume', m.inlet.volume);
+    if (m.inlet.snorkel) row(`snorkel, ${size}`, pipeSize(m.inlet.snorkel.sections, lu));
+    else if (m.inlet.feedDiameter !== undefined) {
+      q('feed diameter', 'length', m.inlet.feedDiameter);
+      row('feed discharge coefficient', fixed(m.inlet.feedCd, 2));
+    }
   } else row('runner draws from', 'the ambient air');
+
   group('Torque and power estimate');
   row('air–fuel ratio', fixed(data.assumptions.airFuelRatio, 1));
   q('fuel heating value', 'heatingValue', data.assumptions.fuelHeatingValue);

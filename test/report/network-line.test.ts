@@ -5,17 +5,15 @@ import { networkLine } from '../../src/report/network-line.js';
 import { units } from '../../src/report/units.js';
 
 describe('the network in one line', () => {
-  it('the demo: ambient, bellmouth, runner, valves, cylinder, exhaust', async () => {
+  it('the demo: the assembly line (analysis/network-line.ts) in the report units', async () => {
     const { model } = await loadCase('cases/demo.yaml');
-    expect(networkLine(model, units('metric'))).toBe(
-      'ambient 101.3 kPa, 20.0 °C → bellmouth (K 0.05) → runner 380.0 mm, Ø 40.0 mm → 2 intake valves Ø 35.0 mm → cylinder 449.3 cc → 2 exhaust valves Ø 29.0 mm → exhaust 105.0 kPa',
-    );
+    expect(networkLine(model, units('metric'))).toBe('ambient → runner 380×40 → valve → cylinder → exhaust at 105.0 kPa (pipe sizes length × diameter in mm)');
   });
 
-  it('a plenum and a runner of sections', async () => {
+  it('an airbox with its snorkel, a tapered runner in inches', async () => {
     const airbox = await loadCase('cases/airbox-single.yaml');
-    expect(networkLine(airbox.model, units('metric'))).toMatch(/^ambient .* → feed Ø \d+\.\d mm \(Cd [\d.]+\) → plenum \d+\.\d\d L → /);
+    expect(networkLine(airbox.model, units('metric'))).toMatch(/^ambient → snorkel \d+×\d+ → airbox \d+\.\d\d L → runner \d+×\d+ → valve → cylinder → /);
     const kart = await loadCase('cases/kart-single.yaml');
-    expect(networkLine(kart.model, units('imperial'))).toMatch(/runner [\d.]+ in in 3 sections, Ø [\d.–]+ \/ [\d.–]+ \/ [\d.–]+ in/);
+    expect(networkLine(kart.model, units('imperial'))).toMatch(/runner [\d.]+ \([\d.]+→[\d.]+\) → .*\(pipe sizes length × diameter in in\)$/);
   });
 });

@@ -2,13 +2,16 @@
  * Reports of the bundled cases, made once per test file through the command
  * line (in-process), in a temporary folder; and small readers of their HTML.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { cli } from '../cli/helpers.js';
+import { cli, ROOT } from '../cli/helpers.js';
 
-/** the bundled engine cases */
-export const BUNDLED = ['demo', 'kart-single', 'airbox-single'] as const;
+/** the bundled engine cases (every case in cases/ but the bare-pipe experiments) */
+export const BUNDLED: readonly string[] = readdirSync(join(ROOT, 'cases'))
+  .filter((f) => f.endsWith('.yaml') && !f.startsWith('pipe-'))
+  .map((f) => f.replace(/\.yaml$/, ''))
+  .sort();
 
 export interface MadeReport {
   name: string;

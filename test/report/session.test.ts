@@ -20,7 +20,8 @@ describe('the report of the case being edited in the terminal view', () => {
     const edits = [{ path: 'runner.length', value: '320 mm' }];
     expect(await session.report(edits, target, false)).toBe(target);
     const html = readFileSync(target, 'utf8');
-    expect(html).toContain('runner 320.0 mm, Ø 40.0 mm'); // the edited runner, in the network line
+    expect(html.includes('runner 320×40 →')).toBe(true); // the edited runner, in the network line
+    expect(html.includes('<td>320.0 mm, Ø 40.0 mm</td>')).toBe(true); // and in the case table
     expect(chartsOf(html).size).toBeGreaterThanOrEqual(4);
     expect(await session.suggestReportPath()).toBe(join(tmp.dir, 'mine-report-2.html'));
     writeFileSync(join(tmp.dir, 'other.html'), 'mine');

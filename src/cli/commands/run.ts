@@ -72,11 +72,11 @@ examples
       await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
     }
     if (args.flag('json')) {
-      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds))}\n`);
+      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, loaded.model))}\n`);
       return 0;
     }
     if (csv !== undefined) {
-      await writeFileAtomic(csv, traceCsv(result), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+      await writeFileAtomic(csv, traceCsv(result, loaded.model), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     }
     io.stdout.write(runSummary(loaded, result, pulse, wallSeconds));
     if (csv !== undefined) io.stdout.write(`\nwrote the trace (${result.trace.crank.length} rows, one per crank degree) to ${csv}\n`);
