@@ -249,16 +249,20 @@ async function simulateDesigns(plan: TunePlan, numbers: readonly number[], jobs:
   return points.map((p, k) => designOutcome(numbers[k]!, p));
 }
 
-function announceCost(io: CliIo, plan: TunePlan, designs: number, jobs: number, what: string): void {
-  const s = sweepsSeconds(plan.base.model, plan.grid.values, designs, jobs);
-  if (!(s >= LONG_RUN_SECONDS)) return;
-  const points = designs * plan.grid.values.length;
-  io.stderr.write(
-    wrapLine(
-      `${what}: ${designs} designs × ${plan.grid.values.length} speeds = ${points} points; estimated about ${roughDuration(s)} on ${jobs} job${jobs === 1 ? '' : 's'} ` +
-        '(a rough figure from the mesh and the speeds; machines differ). To spread a grid over several machines: --shard K/N and tractwave merge',
-    ) + '\n',
+/** The line said before a long run (undefined for a short one). */
+export function costLine(model: LoadedCase['model'], rpms: readonly number[], designs: number, jobs: number, what: string): string | undefined {
+  const s = sweepsSeconds(model, rpms, designs, jobs);
+  if (!(s >= LONG_RUN_SECONDS)) return undefined;
+  const points = designs * rpms.length;
+  return wrapLine(
+    `${what}: ${designs} designs × ${rpms.length} speeds = ${points} points; estimated about ${roughDuration(s)} on ${jobs} job${jobs === 1 ? '' : 's'} ` +
+      '(a rough figure from the mesh and the speeds; machines differ). To spread a grid over several machines: --shard K/N and tractwave merge',
   );
+}
+
+function announceCost(io: CliIo, plan: TunePlan, designs: number, jobs: number, what: string): void {
+  const line = costLine(plan.base.model, plan.grid.values, designs, jobs, what);
+  if (line !== undefined) io.stderr.write(`${line}\n`);
 }
 
 // ---------------------------------------------------------------- the report
@@ -394,18 +398,24 @@ function rangeText(a: Axis): string {
 }
 
 /** Warnings for a best value at the end of its range (stderr). */
-function edgeWarnings(axes: readonly Axis[], edges: readonly string[], bestTyped: readonly number[]): string[] {
+function edgeWarnings(axes: readonly Axis[], edges: readonly string[], bestTyped: readonly number[], ends: (a: Axis) => [number, number]): string[] {
   return edges.map((path) => {
     const k = axes.findIndex((a) => a.path === path);
     const a = axes[k]!;
     const v = bestTyped[k]!;
-    const end = v === a.spec.grid.from ? 'low' : 'high';
-    return wrapLine(
-      `warning: the best design has ${path} = ${labelOf(v, a.spec.grid.unit)}, the ${end} end of its range ${labelOf(a.spec.grid.from, a.spec.grid.unit)}–` +
-        `${labelOf(a.spec.grid.to, a.spec.grid.unit)}: the best may lie beyond it; widen the range (--vary ${path}=...)`,
+    const [lo, hi] = ends(a);
+    const u = a.spec.grid.unit;
+    return (
+      `warning: the best design has ${path} = ${labelOf(v, u)}, the ${v === lo ? 'low' : 'high'} end of its range ${labelOf(lo, u)}–${labelOf(hi, u)}: ` +
+      `the best may lie beyond it; widen the range (--vary ${path}=...)`
     );
   });
 }
+
+/** the ends of a grid axis: its first and last value */
+const gridEnds = (a: Axis): [number, number] => [a.spec.grid.values[0]!, a.spec.grid.values[a.spec.grid.values.length - 1]!];
+/** the ends of a searched axis: FROM and TO */
+const searchEnds = (a: Axis): [number, number] => (a.discrete ? gridEnds(a) : [a.spec.grid.from, a.spec.grid.to]);
 
 export interface ReportOptions {
   json: boolean;
@@ -440,6 +450,7 @@ export async function writeTuneReport(plan: TunePlan, outcomes: readonly DesignO
     title: `${plan.base.model.name}: tune over ${axes.map((a) => `${a.path} ${rangeText(a)}`).join(' × ')} (${designs.length} designs)`,
     json: {},
     extraText: [],
+    ends: gridEnds,
   });
 }
 
@@ -449,6 +460,8 @@ interface ReportExtras {
   json: Record<string, unknown>;
   /** lines printed before the ranking */
   extraText: string[];
+  /** the ends of an axis's range (grid: first and last value; search: FROM and TO) */
+  ends: (a: Axis) => [number, number];
 }
 
 async function writeReport(
@@ -465,7 +478,7 @@ async function writeReport(
   for (const r of csvOrder) for (const w of sweepWarnings(r.ranked.points, maxCycles, r.label)) io.stderr.write(`${w}\n`);
   if (band.note) io.stderr.write(`note: ${band.note}\n`);
   const best = rows[0];
-  if (best) for (const w of edgeWarnings(axes, edges, best.typed)) io.stderr.write(`${w}\n`);
+  if (best) for (const w of edgeWarnings(axes, edges, best.typed, extras.ends)) io.stderr.write(`${w}\n`);
   const points = rows.length * grid.values.length;
 
   if (o.json) {
@@ -649,7 +662,7 @@ async function runSearch(plan: TunePlan, budget: number, jobs: number, io: CliIo
   const edges = best
     ? edgePaths(
         axes.map((a) => ({ path: a.path, size: a.discrete ? a.values.length : a.spec.grid.to > a.spec.grid.from ? 2 : 1 })),
-        (k) => best.typed[k] === axes[k]!.spec.grid.from || best.typed[k] === axes[k]!.spec.grid.to,
+        (k) => searchEnds(axes[k]!).includes(best.typed[k]!),
       )
     : [];
   // the walk: each design that beat every one before it
@@ -683,6 +696,7 @@ async function runSearch(plan: TunePlan, budget: number, jobs: number, io: CliIo
       `${outcomes.length} designs simulated (${reason}); the grid of these ranges holds ${gridCount}. Nelder–Mead finds a local best: when in doubt, check with the grid.`,
       '',
     ],
+    ends: searchEnds,
   });
 }
 
