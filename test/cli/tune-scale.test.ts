@@ -198,6 +198,7 @@ describe('the design cap and what is not a design value', () => {
     [['--budget', '10'], '--budget', /only applies with --search/],
     [['--search', '--budget', '2'], '--budget', /from 3/],
     [['--shard', '1/2', '--csv', 'x.csv'], '--csv', /ask merge for the CSV/],
+    [['--vary', 'intake.valves=1:4:1', '--search', '--budget', '3'], '--budget', /4 combinations of intake\.valves/],
   ])('%j is refused', async (extra, what, fragment) => {
     refused(await run([...GRID, ...extra]), what, fragment);
   });

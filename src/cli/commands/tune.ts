@@ -606,6 +606,12 @@ async function runSearch(plan: TunePlan, budget: number, jobs: number, io: CliIo
     values: a.spec.grid.values,
   }));
   const search = new DesignSearch(searchAxes, budget);
+  if (search.combinationCount > budget)
+    throw new CaseError(
+      '--budget',
+      `${search.combinationCount} combinations of ${axes.filter((a) => a.discrete).map((a) => a.path).join(', ')} need a budget of at least that many designs, got ${budget}`,
+      'option',
+    );
   announceCost(io, plan, budget, jobs, 'search (at most)');
   const live = o.json ? (io.stderrIsTTY ? io.stderr : undefined) : io.stdout;
   live?.write(
@@ -747,7 +753,8 @@ Cam timing as a design value, in crank degrees:
                             positive = later (retard), negative = earlier
                             (advance). Shift S makes "opens X BTDC, closes Y
                             ABDC" into opens X − S BTDC, closes Y + S ABDC;
-                            for the exhaust, opens X − S BBDC, closes Y + S ATDC.
+                            for the exhaust, opens X − S BBDC and closes
+                            Y + S ATDC.
   intake.duration=260:300:10  the open duration opens + 180 + closes, both
                             events moved alike about the same centre line.
   (exhaust.shift and exhaust.duration alike; duration first, then shift.)
@@ -767,8 +774,9 @@ Shards (a cluster's job scheduler, or GNU parallel on several machines):
                 together and prints exactly what the whole tune prints.
   --shard auto  K and N from a Slurm job array (SLURM_ARRAY_TASK_ID, _COUNT,
                 _MIN, _MAX, _STEP; indices one evenly spaced range).
-  --shard auto/N  K from a Kubernetes Indexed Job (JOB_COMPLETION_INDEX, 0-based);
-                N = the Job's spec.completions (Kubernetes does not pass it on).
+  --shard auto/N  K from a Kubernetes Indexed Job (JOB_COMPLETION_INDEX,
+                0-based); N = the Job's spec.completions (Kubernetes does not
+                pass it on to the pod).
                 With a grid of up to ${MAX_GRID_DESIGNS} designs, each part at most ${MAX_DESIGNS}.
 
 --search simulates far fewer designs than the grid: starting in the middle of
@@ -806,7 +814,7 @@ examples
   tractwave tune cases/demo.yaml --vary runner.length=250mm:500mm:10mm \\
       --vary intake.shift=-20:20:2 --search
   tractwave tune cases/demo.yaml --vary runner.length=250mm:500mm:25mm \\
-      --shard 2/4 --json > part-2.json        (then: tractwave merge part-*.json)
+      --shard 2/4 --json > part-2.json    (then: tractwave merge part-*.json)
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
