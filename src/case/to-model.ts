@@ -13,7 +13,7 @@
  * angles are where the curve passes the checking lift, and the zero-lift
  * ends lie outside them (see `widenToZeroLift`).
  */
-import type { EngineModel, TablePoint, ValveModel } from '../core/model.js';
+import type { EngineModel, PipeModel, RunnerSection, TablePoint, ValveModel } from '../core/model.js';
 import type { PipeExperimentModel } from '../core/pipe-experiment-model.js';
 import { DEFAULT_CD_TABLE, valveLift } from '../core/valve.js';
 import { CaseError } from './errors.js';
@@ -150,6 +150,28 @@ function valveModel(
   };
 }
 
+function copySection(s: RunnerSection): RunnerSection {
+  return { length: s.length, diameterStart: s.diameterStart, diameterEnd: s.diameterEnd };
+}
+
+/** a pipe's sections and wall; the wall at `defaultWall` [K] unless the case gives one */
+function pipeModel(
+  p: { sections: RunnerSection[]; wallTemperature?: number | undefined; friction: number; heatTransfer: boolean },
+  defaultWall: number,
+): PipeModel {
+  return { sections: p.sections.map(copySection), wallTemperature: p.wallTemperature ?? defaultWall, friction: p.friction, heatTransfer: p.heatTransfer };
+}
+
+function plenumModel(inlet: Extract<Case['inlet'], { kind: 'plenum' }>, ambientTemperature: number): Extract<EngineModel['inlet'], { kind: 'plenum' }> {
+  return {
+    kind: 'plenum',
+    volume: inlet.volume,
+    ...(inlet.feedDiameter !== undefined ? { feedDiameter: inlet.feedDiameter } : {}),
+    feedCd: inlet.feedCd,
+    ...(inlet.snorkel ? { snorkel: { ...pipeModel(inlet.snorkel, ambientTemperature), entryLoss: inlet.snorkel.entryLoss } } : {}),
+  };
+}
+
 /** Build the core's engine model from a validated case. Throws CaseError for inconsistent events. */
 export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
   const ic = effectiveCard(c.intake);
@@ -167,18 +189,23 @@ export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
     },
     ambient: { pressure: c.ambient.pressure, temperature: c.ambient.temperature },
     intake,
-    exhaust: { ...exhaustValve, backPressure: c.exhaust.backPressure, gasTemperature: c.exhaust.gasTemperature },
+    exhaust: {
+      ...exhaustValve,
+      backPressure: c.exhaust.backPressure,
+      gasTemperature: c.exhaust.gasTemperature,
+      ...(c.exhaust.releasePressure !== undefined ? { releasePressure: c.exhaust.releasePressure } : {}),
+      // the exhaust pipe's wall: at the gas temperature unless the case says otherwise
+      ...(c.exhaust.pipe ? { pipe: pipeModel(c.exhaust.pipe, c.exhaust.gasTemperature) } : {}),
+    },
     runner: {
-      sections: c.runner.sections.map((s) => ({ length: s.length, diameterStart: s.diameterStart, diameterEnd: s.diameterEnd })),
+      sections: c.runner.sections.map(copySection),
       wallTemperature: c.runner.wallTemperature ?? c.ambient.temperature,
       friction: c.runner.friction,
       heatTransfer: c.runner.heatTransfer,
       entryLoss: c.runner.entryLoss,
+      ...(c.runner.resonator && c.runner.resonator.length > 0 ? { resonators: c.runner.resonator.map((r) => ({ ...r })) } : {}),
     },
-    inlet:
-      c.inlet.kind === 'plenum'
-        ? { kind: 'plenum', volume: c.inlet.volume, feedDiameter: c.inlet.feedDiameter, feedCd: c.inlet.feedCd }
-        : { kind: 'ambient' },
+    inlet: c.inlet.kind === 'plenum' ? plenumModel(c.inlet, c.ambient.temperature) : { kind: 'ambient' },
     rpm: c.rpm,
     numerics: { ...c.numerics },
   };

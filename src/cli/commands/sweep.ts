@@ -5,6 +5,7 @@
  * Also the pieces `tune` and `compare` share: speed range and band from the
  * options or the case, --jobs, progress on stderr, the curve chart.
  */
+import { networkLine } from '../../analysis/network-line.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
 import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
@@ -501,6 +502,7 @@ examples
     out.push(
       `${loaded.model.name}: speed sweep ${fix(grid.values[0]!, 0)}–${fix(grid.values[grid.values.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm` +
         ` (${points.length} points, ${jobs} job${jobs === 1 ? '' : 's'}, ${fix(wallSeconds, 1)} s)`,
+      `  ${networkLine(loaded.model)}`,
       '',
       'volumetric efficiency ηv [%] against speed',
     );
