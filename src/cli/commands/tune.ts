@@ -228,10 +228,10 @@ export function designOutcome(number: number, points: readonly SweepPoint[]): De
 }
 
 /** Simulate the designs with these grid numbers; results in the same order. */
-async function simulateDesigns(plan: TunePlan, numbers: readonly number[], jobs: number, io: CliIo, what: string): Promise<DesignOutcome[]> {
+async function simulateDesigns(plan: TunePlan, numbers: readonly number[], jobs: number, io: CliIo, what: string, sharded: boolean): Promise<DesignOutcome[]> {
   const designs = numbers.map((i) => designAt(plan.axes, i));
   const loaded = designs.map((d) => designCase(plan, d.sets));
-  announceCost(io, plan, designs.length, jobs, what);
+  announceCost(io, plan, designs.length, jobs, what, !sharded);
   const bar = progress(io, what);
   const t0 = performance.now();
   let points: SweepPoint[][];
@@ -250,18 +250,18 @@ async function simulateDesigns(plan: TunePlan, numbers: readonly number[], jobs:
 }
 
 /** The line said before a long run (undefined for a short one). */
-export function costLine(model: LoadedCase['model'], rpms: readonly number[], designs: number, jobs: number, what: string): string | undefined {
+export function costLine(model: LoadedCase['model'], rpms: readonly number[], designs: number, jobs: number, what: string, shardHint = true): string | undefined {
   const s = sweepsSeconds(model, rpms, designs, jobs);
   if (!(s >= LONG_RUN_SECONDS)) return undefined;
   const points = designs * rpms.length;
   return wrapLine(
     `${what}: ${designs} designs × ${rpms.length} speeds = ${points} points; estimated about ${roughDuration(s)} on ${jobs} job${jobs === 1 ? '' : 's'} ` +
-      '(a rough figure from the mesh and the speeds; machines differ). To spread a grid over several machines: --shard K/N and tractwave merge',
+      `(a rough figure from the mesh and the speeds; machines differ)${shardHint ? '. To spread a grid over several machines: --shard K/N and tractwave merge' : ''}`,
   );
 }
 
-function announceCost(io: CliIo, plan: TunePlan, designs: number, jobs: number, what: string): void {
-  const line = costLine(plan.base.model, plan.grid.values, designs, jobs, what);
+function announceCost(io: CliIo, plan: TunePlan, designs: number, jobs: number, what: string, shardHint = true): void {
+  const line = costLine(plan.base.model, plan.grid.values, designs, jobs, what, shardHint);
   if (line !== undefined) io.stderr.write(`${line}\n`);
 }
 
@@ -612,7 +612,7 @@ async function runSearch(plan: TunePlan, budget: number, jobs: number, io: CliIo
       `${search.combinationCount} combinations of ${axes.filter((a) => a.discrete).map((a) => a.path).join(', ')} need a budget of at least that many designs, got ${budget}`,
       'option',
     );
-  announceCost(io, plan, budget, jobs, 'search (at most)');
+  announceCost(io, plan, budget, jobs, 'search (at most)', false);
   const live = o.json ? (io.stderrIsTTY ? io.stderr : undefined) : io.stdout;
   live?.write(
     wrapLine(
@@ -855,7 +855,7 @@ examples
     if (shard !== undefined) {
       const numbers = shardDesigns(total, shard);
       io.stderr.write(`tune: shard ${shard.index}/${shard.count} (${shard.source}): ${numbers.length} of ${total} designs\n`);
-      const outcomes = await simulateDesigns(plan, numbers, jobs, io, `tune shard ${shard.index}/${shard.count}`);
+      const outcomes = await simulateDesigns(plan, numbers, jobs, io, `tune shard ${shard.index}/${shard.count}`, true);
       const tool = toolName();
       const part: TunePart = {
         format: PART_FORMAT,
@@ -874,7 +874,7 @@ examples
       return 0;
     }
     const numbers = shardDesigns(total, { index: 1, count: 1 });
-    const outcomes = await simulateDesigns(plan, numbers, jobs, io, `tune (${total} designs)`);
+    const outcomes = await simulateDesigns(plan, numbers, jobs, io, `tune (${total} designs)`, false);
     return writeTuneReport(plan, outcomes, io, report);
   },
 };
