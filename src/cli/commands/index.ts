@@ -10,6 +10,7 @@ import { pipeCommand } from './pipe.js';
 import { sweepCommand } from './sweep.js';
 import { tuneCommand } from './tune.js';
 import { compareCommand } from './compare.js';
+import { mergeCommand } from './merge.js';
 import { reportCommand } from './report.js';
 
-export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, compareCommand, reportCommand];
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, mergeCommand, compareCommand, reportCommand];

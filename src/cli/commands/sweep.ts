@@ -145,7 +145,7 @@ export function progress(io: CliIo, what: string): { tick: (done: number, total:
 }
 
 /** Warnings for points that did not converge or lost mass. */
-export function sweepWarnings(points: readonly SweepPoint[], maxCycles: number, label = ''): string[] {
+export function sweepWarnings(points: readonly Pick<SweepPoint, 'rpm' | 'converged' | 'massImbalance'>[], maxCycles: number, label = ''): string[] {
   const out: string[] = [];
   const bad = points.filter((p) => !p.converged);
   const who = label ? `${label}: ` : '';
