@@ -7,20 +7,22 @@ import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../ar
 import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
 import { writeFileAtomic } from '../write-file.js';
+import { checkTarget } from '../target.js';
 
 const OPTIONS: OptionSpec[] = [
   RPM_OPTION,
   SET_OPTION,
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units, crank degrees)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write the per-degree trace of the converged cycle to FILE' },
-  { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of valve pressure, valve flow and cylinder mass against crank angle to FILE (SVG)' },
+  { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
 ];
 
 export const runCommand: Command = {
   name: 'run',
   summary: 'simulate one operating point: ηv, trapped mass, pulse timing',
   help: `usage: tractwave run CASE [--rpm N] [--set path=value ...]
-                     [--json | --csv FILE [--force]]
+                     [--json | --csv FILE] [--svg FILE] [--force]
 
 Simulates the case at one speed, cycle after cycle until periodic, and prints
 volumetric efficiency, delivered and trapped mass, residual gas, pressures at
@@ -45,19 +47,30 @@ examples
   tractwave run cases/demo.yaml
   tractwave run cases/demo.yaml --rpm 8000 --set runner.length=320mm
   tractwave run cases/demo.yaml --csv demo-trace.csv
+  tractwave run cases/demo.yaml --svg demo-valve.svg
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
     const [file] = expectPositionals(args, ['CASE'], 'run');
     const csv = args.string('csv');
     if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
-    if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
+    const svg = args.string('svg');
+    if (args.flag('force') && csv === undefined && svg === undefined) throw new CaseError('--force', 'only applies with --csv FILE or --svg FILE', 'option');
+    if (svg !== undefined) {
+      if (!/\.svg$/i.test(svg)) throw new CaseError('--svg', `expected a file name ending in .svg, got '${svg}'`, 'option');
+      checkTarget(svg, '--svg', io, args.flag('force'));
+    }
     const loaded = await loadCaseFromArgs(file!, args, io);
     const t0 = performance.now();
     const { result } = simulatePoint(loaded.model);
     const wallSeconds = (performance.now() - t0) / 1000;
     const pulse = pulseTiming(result, loaded.model);
     for (const w of runWarnings(result, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
+    if (svg !== undefined) {
+      const { renderSvg, units, valveChart } = await import('../../report/index.js');
+      const chart = valveChart({ rpm: result.rpm, reason: 'asked', result, pulse }, units('metric'), pulse.referencePressure);
+      await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
+    }
     if (args.flag('json')) {
       io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, loaded.model))}\n`);
       return 0;
@@ -67,6 +80,7 @@ examples
     }
     io.stdout.write(runSummary(loaded, result, pulse, wallSeconds));
     if (csv !== undefined) io.stdout.write(`\nwrote the trace (${result.trace.crank.length} rows, one per crank degree) to ${csv}\n`);
+    if (svg !== undefined) io.stdout.write(`${csv === undefined ? '\n' : ''}wrote the valve chart to ${svg}\n`);
     return 0;
   },
 };
