@@ -159,6 +159,17 @@ const valveKeys = {
   cdTable: table('L/D', 'Cd', 1).optional(),
   /** lift at which the card events were measured (information; see to-model.ts) */
   checkingLift: q('length', { positive: true }).optional(),
+  /**
+   * cam timing moved by this many crank degrees, both events of the valve
+   * alike: positive = later (retard), negative = earlier (advance); see
+   * to-model.ts effectiveCard
+   */
+  shift: q('angle').optional(),
+  /**
+   * open duration in crank degrees between the card events (opens + 180 +
+   * closes), both ends moved alike about the same centre line
+   */
+  duration: q('angle', { positive: true }).optional(),
 };
 
 /** A file named in a case: a path relative to the case file's folder (read in measured-files.ts). */
@@ -206,6 +217,9 @@ function measuredValveChecks(v: { liftFile?: string | undefined; lash?: number |
   }
   if (v.cdScale !== undefined && v.cdScale > CD_SCALE_MAX) issue('cdScale', `must be at most ${CD_SCALE_MAX}, got ${v.cdScale}`);
 }
+
+/** largest cam shift a case may ask for [deg crank] */
+export const SHIFT_LIMIT = 180;
 
 const intakeSchema = z.strictObject({ ...valveKeys, ...measuredValveKeys }).superRefine(measuredValveChecks);
 
@@ -462,9 +476,12 @@ export const caseSchema = z
     for (const side of ['intake', 'exhaust'] as const) {
       const v = c[side];
       if (!(v.diameter < e.bore)) issue([side, 'diameter'], `valve must be smaller than the bore (${mm(e.bore)}), got ${mm(v.diameter)}`);
-      const duration = v.opens + 180 + v.closes;
-      if (!(duration > 0 && duration < 720))
+      const duration = v.duration ?? v.opens + 180 + v.closes;
+      if (v.duration !== undefined && !(v.duration < 720)) issue([side, 'duration'], `must be below 720 deg (a whole cycle), got ${Number(v.duration.toPrecision(6))} deg`);
+      else if (!(duration > 0 && duration < 720))
         issue([side, 'closes'], `duration opens + 180 + closes = ${Number(duration.toPrecision(6))} deg must be between 0 and 720 deg (exclusive)`);
+      if (v.shift !== undefined && !(Math.abs(v.shift) <= SHIFT_LIMIT))
+        issue([side, 'shift'], `must be between -${SHIFT_LIMIT} and ${SHIFT_LIMIT} deg, got ${Number(v.shift.toPrecision(6))} deg`);
       if (v.checkingLift !== undefined && !(v.checkingLift < v.maxLift))
         issue([side, 'checkingLift'], `must be below maxLift (${mm(v.maxLift)}), got ${mm(v.checkingLift)}`);
     }

@@ -98,6 +98,34 @@ export function widenToZeroLift(
   return { open, close: wrap720(open + D) };
 }
 
+/**
+ * The card events after the valve's `duration` and `shift` (both optional),
+ * still in card terms (opens ° before its dead centre, closes ° after its
+ * dead centre; intake BTDC/ABDC, exhaust BBDC/ATDC):
+ *  - duration D: both events move apart (or together) by the same angle about
+ *    the same centre line, so that opens + 180 + closes = D:
+ *      w = (D − (opens + 180 + closes))/2;  opens + w, closes + w;
+ *  - shift S: both events move S crank degrees later (S > 0, retard) or
+ *    earlier (S < 0, advance):  opens − S, closes + S.
+ *    Intake opens 30 BTDC, closes 60 ABDC with shift −10 (10° advance):
+ *    opens 40 BTDC, closes 50 ABDC.
+ * Duration is applied first; then the shift moves the result.
+ */
+export function effectiveCard(v: Pick<Case['intake'], 'opens' | 'closes' | 'shift' | 'duration'>): { opens: number; closes: number } {
+  let opens = v.opens;
+  let closes = v.closes;
+  if (v.duration !== undefined) {
+    const w = (v.duration - (opens + 180 + closes)) / 2;
+    opens += w;
+    closes += w;
+  }
+  if (v.shift !== undefined) {
+    opens -= v.shift;
+    closes += v.shift;
+  }
+  return { opens, closes };
+}
+
 function valveModel(
   v: Case['intake'],
   openTheta: number,
@@ -148,8 +176,10 @@ function plenumModel(inlet: Extract<Case['inlet'], { kind: 'plenum' }>, ambientT
 
 /** Build the core's engine model from a validated case. Throws CaseError for inconsistent events. */
 export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
-  const intake = valveModel(c.intake, cardToTheta.intakeOpens(c.intake.opens), cardToTheta.intakeCloses(c.intake.closes), 'intake');
-  const exhaustValve = valveModel(c.exhaust, cardToTheta.exhaustOpens(c.exhaust.opens), cardToTheta.exhaustCloses(c.exhaust.closes), 'exhaust');
+  const ic = effectiveCard(c.intake);
+  const ec = effectiveCard(c.exhaust);
+  const intake = valveModel(c.intake, cardToTheta.intakeOpens(ic.opens), cardToTheta.intakeCloses(ic.closes), 'intake');
+  const exhaustValve = valveModel(c.exhaust, cardToTheta.exhaustOpens(ec.opens), cardToTheta.exhaustCloses(ec.closes), 'exhaust');
   return {
     name: c.name ?? fallbackName,
     engine: {

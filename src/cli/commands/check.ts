@@ -11,7 +11,7 @@ import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../ar
 import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
 import { card, cc, cm2, deg, fix, hz, kPa, mm, row, rpm, wrap } from '../format.js';
 import type { LoadedCase } from '../../case/load.js';
-import { wrap720 } from '../../case/to-model.js';
+import { effectiveCard, wrap720 } from '../../case/to-model.js';
 import { eventLines } from '../run-output.js';
 import { measuredFileLines } from '../measured-output.js';
 import { density } from '../../core/gas.js';
@@ -81,6 +81,15 @@ export function checkReport(loaded: LoadedCase): string {
     (v.checkingLift !== undefined ? ` at ${mm(v.checkingLift, 2)}` : ', zero lift') + (v.liftFile !== undefined ? ' (from the lift log)' : '');
   s += row('intake', `opens ${card(c.intake.opens, 'BTDC', 'ATDC', 1)}, closes ${card(c.intake.closes, 'ABDC', 'BBDC', 1)}${note(c.intake)}`);
   s += row('exhaust', `opens ${card(c.exhaust.opens, 'BBDC', 'ABDC', 1)}, closes ${card(c.exhaust.closes, 'ATDC', 'BTDC', 1)}${note(c.exhaust)}`);
+  for (const [side, v, o, cl] of [['intake', c.intake, ['BTDC', 'ATDC'], ['ABDC', 'BBDC']], ['exhaust', c.exhaust, ['BBDC', 'ABDC'], ['ATDC', 'BTDC']]] as const) {
+    if (v.shift === undefined && v.duration === undefined) continue;
+    const e = effectiveCard(v);
+    const what = [v.duration !== undefined ? `duration ${fix(v.duration, 1)}°` : '', v.shift !== undefined ? `shift ${v.shift > 0 ? '+' : v.shift < 0 ? '−' : ''}${fix(Math.abs(v.shift), 1)}°` : '']
+      .filter((x) => x !== '')
+      .join(', ');
+    s += row(`${side}, as moved`, `opens ${card(e.opens, o[0], o[1], 1)}, closes ${card(e.closes, cl[0], cl[1], 1)}`);
+    s += `  (by ${side}.${what.replace(', ', ` and ${side}.`)})\n`;
+  }
   const widened = c.intake.checkingLift !== undefined || c.exhaust.checkingLift !== undefined;
   if (widened) s += '  (measured at a checking lift: widened below to the zero-lift ends)\n';
   s += '\nevents as θ, 0 = TDC at the start of the intake stroke\n';

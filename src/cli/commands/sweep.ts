@@ -25,6 +25,7 @@ import type { CliIo } from '../io.js';
 import { writeFileAtomic } from '../write-file.js';
 import { chartPoints, dynoBlock, dynoJson, outputChart } from '../dyno-output.js';
 import { dynoOf, MEASURED_OPTION } from '../measured-options.js';
+import { checkTarget } from '../target.js';
 
 /** speed range used when neither --rpm nor the case's `sweep` key gives one */
 export const DEFAULT_SWEEP = { from: 3000, to: 9000, step: 250 } as const;
@@ -146,7 +147,7 @@ export function progress(io: CliIo, what: string): { tick: (done: number, total:
 }
 
 /** Warnings for points that did not converge or lost mass. */
-export function sweepWarnings(points: readonly SweepPoint[], maxCycles: number, label = ''): string[] {
+export function sweepWarnings(points: readonly Pick<SweepPoint, 'rpm' | 'converged' | 'massImbalance'>[], maxCycles: number, label = ''): string[] {
   const out: string[] = [];
   const bad = points.filter((p) => !p.converged);
   const who = label ? `${label}: ` : '';
@@ -403,10 +404,11 @@ export function sweepCsv(points: readonly SweepPoint[]): string {
  * --csv FILE or --json (not both). An existing FILE without --force is refused
  * here, before any simulation runs (the atomic write checks again at the end).
  */
-export function csvAndJsonChoice(args: ParsedArgs, io: CliIo): string | undefined {
+export function csvAndJsonChoice(args: ParsedArgs, io: CliIo, withSvg = false): string | undefined {
   const csv = args.string('csv');
   if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
-  if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
+  if (args.flag('force') && csv === undefined && !(withSvg && args.string('svg') !== undefined))
+    throw new CaseError('--force', `only applies with --csv FILE${withSvg ? ' or --svg FILE' : ''}`, 'option');
   if (csv !== undefined && !args.flag('force') && existsSync(resolve(io.cwd, csv)))
     throw new CaseError('--csv', `'${csv}' already exists; add --force to overwrite it`, 'option');
   return csv;
@@ -425,7 +427,8 @@ const OPTIONS: OptionSpec[] = [
   MEASURED_OPTION,
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed to FILE (header row with units)' },
-  { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of ηv against speed (band, mean, best speed, tuned speeds) to FILE (SVG)' },
+  { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
 ];
 
 export interface SweepJson {
@@ -448,7 +451,7 @@ export const sweepCommand: Command = {
   summary: 'ηv, estimated torque and power against speed; band mean and best speed',
   help: `usage: tractwave sweep CASE [--rpm FROM:TO:STEP] [--band LO:HI]
                        [--set path=value ...] [--jobs N]
-                       [--json | --csv FILE [--force]]
+                       [--json | --csv FILE] [--svg FILE] [--force]
 
 Simulates the case at each speed of the range and shows volumetric efficiency
 against speed as a chart and a table, the mean over the speed band (area under
@@ -491,11 +494,17 @@ examples
   tractwave sweep cases/demo.yaml --rpm 4000:9000:500 --set runner.length=320mm
   tractwave sweep cases/demo.yaml --csv demo-sweep.csv
   tractwave sweep cases/measured-single.yaml --measured cases/measured/dyno.csv
+  tractwave sweep cases/demo.yaml --svg demo-sweep.svg
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
     const [file] = expectPositionals(args, ['CASE'], 'sweep');
-    const csv = csvAndJsonChoice(args, io);
+    const csv = csvAndJsonChoice(args, io, true);
+    const svg = args.string('svg');
+    if (svg !== undefined) {
+      if (!/\.svg$/i.test(svg)) throw new CaseError('--svg', `expected a file name ending in .svg, got '${svg}'`, 'option');
+      checkTarget(svg, '--svg', io, args.flag('force'));
+    }
     const jobs = parseJobs(args);
     const loaded = await loadForSweep(file!, args, io);
     const dyno = await dynoOf(args, loaded, io.cwd);
@@ -515,6 +524,11 @@ examples
     const estimates = caseEstimates(loaded.model, grid.values[0]!, grid.values[grid.values.length - 1]!);
     for (const w of sweepWarnings(points, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
+    if (svg !== undefined) {
+      const { renderSvg, speedVeChart } = await import('../../report/index.js');
+      const chart = speedVeChart({ design: { name: loaded.model.name }, rpms: grid.values, band, curve: { points, summary }, estimates });
+      await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
+    }
 
     if (args.flag('json')) {
       const json: SweepJson = {
@@ -567,6 +581,7 @@ examples
     if (dyno) io.stdout.write(dynoBlock(points, dyno));
     io.stdout.write('results are estimates from a simplified model: verify them on an engine.\n');
     if (csv !== undefined) io.stdout.write(`wrote ${points.length} rows (one per speed) to ${csv}\n`);
+    if (svg !== undefined) io.stdout.write(`wrote the chart of ηv against speed to ${svg}\n`);
     return 0;
   },
 };
