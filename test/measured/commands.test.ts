@@ -113,3 +113,13 @@ describe('check on the bundled example', () => {
     expect(readFileSync(EX, 'utf8')).toMatch(/MADE UP/);
   });
 });
+
+describe('help of the new commands', () => {
+  it.each(['flow', 'calibrate', 'run', 'sweep', 'compare'])('%s --help fits 80 columns and names its measured options', async (command) => {
+    const r = await cli([command, '--help']);
+    expect(r.code).toBe(0);
+    for (const line of r.out.split('\n')) expect([...line].length, line).toBeLessThanOrEqual(80);
+    const words = { flow: '--test-pressure', calibrate: '--fit', run: '--measured-trace', sweep: '--measured', compare: '--measured' }[command]!;
+    expect(r.out).toContain(words);
+  });
+});

@@ -70,11 +70,13 @@ export const flowCommand: Command = {
 Reads a flow-bench sheet (CSV with a header row: lift_mm or lift_in, and
 flow_cfm, flow_L_per_s or flow_kg_per_s; volume flows are of air at the room
 state) and prints, for each lift, L/D, the flow and the discharge coefficient
-on the curtain area n·π·D·L (the one a case's Cd table holds) and on the valve
+on the curtain area n·π·D·L (what a case's Cd table holds) and on the valve
 head area n·π·D²/4, from the compressible orifice equation (Heywood 1988,
-App. C): Cd = ṁ / (A · p0/√(R·T0) · √(2γ/(γ−1)·(pr^(2/γ) − pr^((γ+1)/γ)))),
-pr = (p0 − P)/p0. In a case, intake.flowFile (with flowTestPressure and
-flowDiameter) uses these Cd values as the valve's Cd table.
+App. C):
+  Cd = ṁ / (A·p0/√(R·T0)·√(2γ/(γ−1)·(pr^(2/γ) − pr^((γ+1)/γ)))),
+  pr = (p0 − P)/p0.
+In a case, intake.flowFile (with flowTestPressure and flowDiameter) uses
+these Cd values as the valve's Cd table.
 
 options
 ${optionHelp(OPTIONS)}
@@ -83,8 +85,9 @@ ${optionHelp(OPTIONS)}
 points [{lift, ld, flow, cd, cdValveArea}] (SI: m, kg/s).
 
 examples
-  tractwave flow cases/measured/flow-intake.csv --diameter 34mm --test-pressure 28inH2O
-  tractwave flow bench.csv --diameter 1.5in --test-pressure 10inH2O --valves 2 --json
+  tractwave flow cases/measured/intake-flow.csv --diameter 34mm \\
+      --valves 2 --test-pressure 28inH2O
+  tractwave flow bench.csv --diameter 1.5in --test-pressure 10inH2O --json
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
@@ -103,9 +106,8 @@ examples
     s += `  bench: room ${fix(setup.pressure / 1000, 3)} kPa, ${fix(setup.temperature - 273.15, 1)} °C; test depression ${fix(setup.testPressure / 1000, 3)} kPa (${fix(setup.testPressure / INH2O, 1)} inH2O)\n\n`;
     const rows = points.map((p, i) => [fix(p.lift * 1000, 2), fix(p.ld, 3), flowText(sheet, i), fix(p.flow * 1000, 2), fix(p.cd, 3), fix(p.cdValveArea, 3)]);
     s += table(['lift mm', 'L/D', `flow ${unit}`, 'g/s', 'Cd curtain', 'Cd valve'], rows);
-    s += '\nCd curtain: on n·π·D·L, what a case\'s Cd table holds (x = L/D); Cd valve: on n·π·D²/4.\n';
-    s += `In a case: intake: { flowFile: ${file}, flowTestPressure: "${fix(setup.testPressure / INH2O, 1)} inH2O", flowDiameter: "${fix(setup.diameter * 1000, 2)} mm" }\n`;
-    s += '(the path is then relative to the case file)\n';
+    s += '\nCd curtain: on n·π·D·L, what a case\'s Cd table holds (x = L/D);\nCd valve: on n·π·D²/4.\n';
+    s += `In a case (the file name then relative to the case file):\n  intake: { flowFile: ${file}, flowTestPressure: ${fix(setup.testPressure / INH2O, 1)} inH2O,\n            flowDiameter: ${fix(setup.diameter * 1000, 2)} mm }\n`;
     io.stdout.write(s);
     if (csv !== undefined) io.stdout.write(`wrote ${points.length} rows to ${csv}\n`);
     return 0;

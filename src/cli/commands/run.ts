@@ -53,7 +53,8 @@ examples
   tractwave run cases/demo.yaml
   tractwave run cases/demo.yaml --rpm 8000 --set runner.length=320mm
   tractwave run cases/demo.yaml --csv demo-trace.csv
-  tractwave run cases/measured-single.yaml --measured-trace cases/measured/trace.csv --sensor-at 80mm
+  tractwave run cases/measured-single.yaml --sensor-at 80mm \\
+      --measured-trace cases/measured/trace.csv
   tractwave run cases/demo.yaml --svg demo-valve.svg
 
 --measured-trace FILE compares a measured runner pressure trace with the
