@@ -7,7 +7,7 @@ import { compareDyno, type DynoComparison, type DynoKind, type DynoPoint } from 
 import type { SweepPoint } from '../analysis/sweep.js';
 import type { MeasuredSheet } from '../case/measured.js';
 import { fix, table } from './format.js';
-import { curveChart, MEASURED_GLYPH, signed, type ChartMarks } from './commands/sweep.js';
+import { curveChart, MEASURED_GLYPH, signed, wrapLine, type ChartMarks } from './commands/sweep.js';
 
 /** the measured values of a point, as in the sheet (SI) */
 function valuesOf(m: DynoPoint): Partial<Record<DynoKind, number>> {
@@ -94,10 +94,10 @@ export function dynoBlock(points: readonly SweepPoint[], sheet: MeasuredSheet): 
   const rel = rows.flatMap((r) => kinds.map((k) => r.relative[k])).filter((v): v is number => v !== undefined && Number.isFinite(v));
   if (rel.length > 0) {
     const rms = Math.sqrt(rel.reduce((t, v) => t + v * v, 0) / rel.length);
-    s += `  RMS difference ${fix(rms * 100, 1)} % over ${rel.length} values; Δ = (model − measured)/measured; — outside the swept speeds\n`;
+    s += `${wrapLine(`  RMS difference ${fix(rms * 100, 1)} % over ${rel.length} values; Δ = (model − measured)/measured; — outside the swept speeds`)}\n`;
   }
   if (kinds.some((k) => k !== 'volumetricEfficiency'))
-    s += '  the model\'s torque and power are estimates from ηv with the assumed efficiency: `tractwave calibrate` fits it to this sheet\n';
+    s += `${wrapLine("  the model's torque and power are estimates from ηv with the assumed efficiency: `tractwave calibrate` fits it to this sheet")}\n`;
   return s;
 }
 
@@ -121,6 +121,6 @@ export function dynoBlockTwo(a: readonly SweepPoint[], b: readonly SweepPoint[],
   };
   let s = `\nmeasured (${sheet.file}) against A and B at the measured speeds\n`;
   s += table(head, body);
-  s += `  RMS difference: A ${fix(rms(ra) * 100, 1)} %, B ${fix(rms(rb) * 100, 1)} %; Δ = (model − measured)/measured\n`;
+  s += `${wrapLine(`  RMS difference: A ${fix(rms(ra) * 100, 1)} %, B ${fix(rms(rb) * 100, 1)} %; Δ = (model − measured)/measured`)}\n`;
   return s;
 }

@@ -38,7 +38,7 @@ function peakText(p: PressurePeak | null): string {
 /** The text block of run with a measured trace. */
 export function traceLines(c: TraceComparison, t: MeasuredTrace, r: PointResult): string {
   const where = c.sensorAt > 0 ? `sensor ${mm(c.sensorAt, 0)} from the valve (the runner's map there)` : 'sensor at the valve';
-  let s = `\nmeasured trace ${t.log.file}: ${where}${t.tdcOffset !== 0 ? `, TDC offset ${fix(t.tdcOffset, 1)}°` : ''}${t.log.gauge ? ', gauge + ambient' : ''}\n`;
+  let s = `\nmeasured trace ${t.log.file}\n  ${where}${t.tdcOffset !== 0 ? `, TDC offset ${fix(t.tdcOffset, 1)}°` : ''}${t.log.gauge ? ', gauge + ambient' : ''}\n`;
   s += `  ${''.padEnd(26)}${'model'.padEnd(24)}measured\n`;
   const late = c.lastPeakBeforeIvc.lateBy;
   const two = (label: string, a: string, b: string) => row(label, `${a.padEnd(24)}${b}`);

@@ -100,7 +100,7 @@ describe('a sensor 100 mm from the valve', async () => {
     expect(j.sensorAt).toBeCloseTo(0.1, 12);
     expect(j.rms).toBeLessThan(1e-3);
     const text = await cli(['run', 'cases/demo.yaml', '--measured-trace', f, '--sensor-at', '100mm']);
-    expect(text.out).toMatch(/measured trace .*sensor 100 mm from the valve/);
+    expect(text.out).toMatch(/measured trace .*\n  sensor 100 mm from the valve/);
     expect(text.out).toMatch(/measured pulse:[\s\S]*agrees/);
     const off = await cli(['run', 'cases/demo.yaml', '--measured-trace', f, '--sensor-at', '500mm']);
     expect(off.code).toBe(2);

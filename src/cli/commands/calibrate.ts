@@ -195,15 +195,16 @@ examples
     lines.push(`  ${r.points.length} speeds, ${fix(r.covers.from, 0)}–${fix(r.covers.to, 0)} rpm; ${r.iterations} iterations, ${r.evaluations} simulations of the speeds, ${fix(seconds, 1)} s`);
     lines.push('');
     lines.push('fitted values (± standard error; 95 % interval, linearised)');
+    const rows: string[] = [];
     for (const k of fit) {
       const u = r.uncertainty[k];
       const v = r.fit[k]!;
       const span = u ? `± ${showValue(k, u.standardError)}   (${showValue(k, u.low95)} to ${showValue(k, u.high95)})` : r.atBound.includes(k) ? '(at its bound: no interval)' : '(no interval: as many values as speeds)';
-      lines.push(`  ${FIT_PARAMETERS[k].caseKey.padEnd(26)}${showValue(k, v).padStart(9)}  ${span}   was ${showValue(k, r.start[k]!)}`);
+      rows.push(`  ${FIT_PARAMETERS[k].caseKey.padEnd(25)}${showValue(k, v).padStart(8)}  ${span}`);
+      rows.push(`  ${''.padEnd(25)}was ${showValue(k, r.start[k]!)}: ${FIT_PARAMETERS[k].words}`.slice(0, 80));
     }
-    lines.push('');
-    lines.push(`residual: RMS ${fix(r.residual.rmsRelative * 100, 2)} % (${showQuantity(r.quantity, r.residual.rms)}), was ${fix(r.residual.startRmsRelative * 100, 2)} % before the fit`);
-    io.stdout.write(lines.map((l) => wrapLine(l)).join('\n') + '\n');
+    const after = ['', `residual: RMS ${fix(r.residual.rmsRelative * 100, 2)} % (${showQuantity(r.quantity, r.residual.rms)}), was ${fix(r.residual.startRmsRelative * 100, 2)} % before the fit`];
+    io.stdout.write([...lines.map((l) => wrapLine(l)), ...rows, ...after.map((l) => wrapLine(l))].join('\n') + '\n');
     io.stdout.write(
       table(
         ['rpm', 'measured', 'model', 'model − meas.', '%'],
