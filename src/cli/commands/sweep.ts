@@ -578,6 +578,8 @@ examples
     io.stdout.write(table(POINT_HEADER, pointRows(points)));
     io.stdout.write('\n' + wrapLine(POINT_LEGEND) + '\n');
     io.stdout.write(wrapLine(`* ${assumptionLine(assumptions)}`) + '\n');
+    const supply = loaded.model.inlet.kind === 'plenum' ? loaded.model.inlet.supply : undefined;
+    if (supply) io.stdout.write(wrapLine(`ηv is on the ambient density; the plenum is fed from a boost supply at ${fix(supply.pressure / 1000, 1)} kPa, ${fix(supply.temperature, 0)} K (run gives ηv on the supply density too)`) + '\n');
     if (dyno) io.stdout.write(dynoBlock(points, dyno));
     io.stdout.write('results are estimates from a simplified model: verify them on an engine.\n');
     if (csv !== undefined) io.stdout.write(`wrote ${points.length} rows (one per speed) to ${csv}\n`);
