@@ -24,6 +24,7 @@ import {
 } from './schema.js';
 import { closest } from './suggest.js';
 import { toEngineModel, toPipeModel } from './to-model.js';
+import { attachCaseFiles, prepareLiftLogs, type CaseFiles } from './measured-files.js';
 
 export const MAX_CASE_BYTES = 1024 * 1024;
 
@@ -51,6 +52,8 @@ export interface LoadedCase {
   data: Record<string, unknown>;
   case: Case;
   model: EngineModel;
+  /** the measured-data files the case names, read (measured-files.ts) */
+  files: CaseFiles;
 }
 
 export interface LoadedPipeCase {
@@ -190,9 +193,12 @@ export function buildCase(raw: Record<string, unknown>, file = '', opts: LoadOpt
   const data = structuredClone(raw);
   applySets(data, opts.set ?? [], caseSchema);
   if (opts.rpm !== undefined) data.rpm = opts.rpm;
-  const v = validateCase(data);
+  // measured files, relative to the case file: lift logs give their valve's card before validation
+  const lifts = prepareLiftLogs(data, file, opts.cwd);
+  const v = validateCase(lifts.data);
   if (!v.ok) throw firstIssue(v.issues);
-  return { file, data, case: v.value, model: toEngineModel(v.value, fileStem(file)) };
+  const { case: c, files } = attachCaseFiles(v.value, lifts.logs, file, opts.cwd);
+  return { file, data, case: c, model: toEngineModel(c, fileStem(file)), files };
 }
 
 export function buildPipeCase(raw: Record<string, unknown>, file = '', opts: Pick<LoadOptions, 'set'> = {}): LoadedPipeCase {

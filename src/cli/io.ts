@@ -17,6 +17,8 @@ export interface CliIo {
   stderrIsTTY: boolean;
   /** working directory relative paths are resolved against */
   cwd: string;
+  /** environment variables a command may read (tune --shard auto); main.ts passes process.env */
+  env?: Readonly<Record<string, string | undefined>>;
 }
 
 /** An in-memory CliIo for tests and embedding. */
@@ -30,6 +32,7 @@ export function memoryIo(overrides: Partial<Omit<CliIo, 'stdout' | 'stderr'>> = 
     stdinIsTTY: false,
     stderrIsTTY: false,
     cwd: process.cwd(),
+    env: {},
     ...overrides,
     out: () => out,
     err: () => err,

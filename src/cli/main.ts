@@ -147,6 +147,7 @@ export async function main(argv: readonly string[] = process.argv.slice(2)): Pro
     stdinIsTTY: process.stdin.isTTY === true,
     stderrIsTTY: process.stderr.isTTY === true,
     cwd: process.cwd(),
+    env: process.env,
   };
   process.exitCode = await runCli(argv, io);
 }

@@ -52,7 +52,7 @@ export async function writeFileAtomic(
     if (handle) await handle.close().catch(() => {});
     await rm(tmp, { force: true }).catch(() => {});
     const code = (e as NodeJS.ErrnoException).code;
-    if (code === 'EACCES' || code === 'EPERM' || code === 'EROFS' || code === 'EISDIR')
+    if (code === 'EACCES' || code === 'EPERM' || code === 'EROFS' || code === 'EISDIR' || code === 'ENOENT' || code === 'ENOTDIR')
       throw new CaseError(label, `cannot write '${file}' (${code})`, 'option');
     throw e;
   }

@@ -4,12 +4,13 @@
  * background, the play timer, saving — and passes plain numbers to the
  * display-only views.
  */
-import { dirname, resolve } from 'node:path';
+import { basename, dirname, resolve } from 'node:path';
 import React, { useCallback, useEffect, useReducer, useRef } from 'react';
 import { Box, useApp, useInput, useStdin, type Key } from 'ink';
 import type { WarmStart } from '../core/engine.js';
 import type { EngineModel } from '../core/model.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
+import { compareTrace } from '../analysis/trace-compare.js';
 import { windowStart } from './chart.js';
 import type { CaseSession } from './case-session.js';
 import type { EngineService } from './engine-service.js';
@@ -19,7 +20,9 @@ import { reduceApp, type KeyAction } from './keys.js';
 import { Lines } from './lines.js';
 import { colorWanted } from './palette.js';
 import { FileExistsError } from './save.js';
-import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type UiState } from './state.js';
+import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type PointShown, type UiState } from './state.js';
+import type { PipeShown } from './runner-screen.js';
+import type { ValveMeasured } from './valve-screen.js';
 import { teachingLine } from './teach.js';
 import { etaPct, etaPoints, fit, joinFit, mg, wrapWords } from './text.js';
 import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
@@ -83,10 +86,14 @@ export function App(props: AppProps): React.JSX.Element {
   const onKey = useCallback((input: string, key: Key) => dispatch({ type: 'key', input, key }), []);
   useInput(onKey, { isActive: isRawModeSupported === true });
 
-  // the first name offered for saving
+  // the first names offered for saving the case and for its report
   useEffect(() => {
     void session.suggestSavePath().then(
       (path) => dispatch({ type: 'suggestSave', path }),
+      () => undefined,
+    );
+    void session.suggestReportPath().then(
+      (path) => dispatch({ type: 'suggestReport', path }),
       () => undefined,
     );
   }, [session]);
@@ -108,6 +115,17 @@ export function App(props: AppProps): React.JSX.Element {
         (out) => {
           warm.current = out.warmStart;
           if (!live) return;
+          // the case's measured trace against this result (analysis, on this thread: 720 samples)
+          const trace = session.measured?.trace;
+          let traceCheck: PointShown['traceCheck'];
+          if (trace) {
+            try {
+              const c = compareTrace(out.result, model, trace.byDegree, trace.sensorAt);
+              traceCheck = { model: c.model, verdict: c.verdict };
+            } catch {
+              traceCheck = undefined; // the point stands without the comparison
+            }
+          }
           dispatch({
             type: 'pointDone',
             id: request.id,
@@ -117,6 +135,7 @@ export function App(props: AppProps): React.JSX.Element {
               label: request.label,
               ambient: model.ambient.pressure,
               upstream: model.inlet.kind,
+              ...(traceCheck ? { traceCheck } : {}),
             },
           });
         },
@@ -174,15 +193,16 @@ export function App(props: AppProps): React.JSX.Element {
         if (live) dispatch({ type: 'saveChecked', exists });
       });
     } else if (save.stage === 'saving') {
-      session.save(state.edits, save.path, save.overwrite).then(
+      const report = save.kind === 'report';
+      (report ? session.report(state.edits, save.path, save.overwrite) : session.save(state.edits, save.path, save.overwrite)).then(
         async (path) => {
-          const next = await session.suggestSavePath().catch(() => '');
+          const next = await (report ? session.suggestReportPath() : session.suggestSavePath()).catch(() => '');
           if (live) dispatch({ type: 'saved', path, next });
         },
         (e: unknown) => {
           if (!live) return;
           if (e instanceof FileExistsError) dispatch({ type: 'saveChecked', exists: true });
-          else dispatch({ type: 'saveFailed', message: `Not saved: ${saveProblem(e, save.path)}` });
+          else dispatch({ type: 'saveFailed', message: `${report ? 'No report written' : 'Not saved'}: ${saveProblem(e, save.path)}` });
         },
       );
     }
@@ -236,6 +256,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         currentRpm={rpm}
         status={s.sweepStatus}
         stale={sweepIsStale(s)}
+        measured={s.measured && session.measured?.dyno ? { points: session.measured.dyno.points, label: `dyno ${basename(session.measured.dyno.file)}` } : undefined}
         color={color}
       />
     );
@@ -269,10 +290,11 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         crank={s.crank}
         from={from}
         span={span}
-        map={{ x: point.result.runnerMap.x, pressure: point.result.runnerMap.pressure, ambient: point.ambient }}
+        map={shownPipeMap(point, s.pipeIndex)}
         events={point.result.events}
         runnerLength={point.result.runnerLength}
         upstream={point.upstream}
+        pipe={shownPipe(point, s.pipeIndex)}
         roundTripDeg={point.pulse?.roundTripDeg}
         rpm={point.result.rpm}
         color={color}
@@ -289,9 +311,11 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         now={point.result.trace}
         before={s.baseline?.result.trace}
         reference={point.ambient}
+        exhaustPort={point.result.pipes.some((p) => p.role === 'exhaust') ? point.result.trace.exhaustPortPressure : undefined}
         events={point.result.events}
         verdict={point.pulse?.verdict}
         openingNote={point.pulse?.openingNote}
+        measured={s.measured ? valveMeasured(session, point) : undefined}
         color={color}
       />
     );
@@ -325,6 +349,40 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
       <Lines lines={[keyHints(s.view, w, s.playing)]} color={color} dim />
     </Box>
   );
+}
+
+/** The measured data the Valve view draws: the case's trace (with the model at its sensor) and intake lift log. */
+export function valveMeasured(session: CaseSession, point: PointShown): ValveMeasured | undefined {
+  const m = session.measured;
+  if (!m || (!m.trace && !m.lift)) return undefined;
+  return {
+    ...(m.trace && point.traceCheck ? { trace: { pressure: m.trace.byDegree, model: point.traceCheck.model, sensorAt: m.trace.sensorAt }, verdict: point.traceCheck.verdict } : {}),
+    ...(m.lift ? { lift: m.lift } : {}),
+  };
+}
+
+/** The map of the pipe the Runner view shows (the runner when the case has no other). */
+function shownPipeMap(point: PointShown, index: number): { x: ArrayLike<number>; pressure: ArrayLike<number>; ambient: number } {
+  const m = point.result.pipes[index] ?? point.result.runnerMap;
+  return { x: m.x, pressure: m.pressure, ambient: point.ambient };
+}
+
+/** The words for the ends of the pipe shown, drawn with the engine end at the top. */
+export function shownPipe(point: PointShown, index: number): PipeShown | undefined {
+  const pipes = point.result.pipes;
+  const m = pipes[index];
+  if (!m || pipes.length <= 1) return undefined;
+  const base = { name: m.name, length: m.length, index, count: pipes.length };
+  switch (m.role) {
+    case 'runner':
+      return { ...base, top: 'valve', bottom: point.upstream === 'plenum' ? 'plenum' : 'open', startOnTop: false };
+    case 'snorkel':
+      return { ...base, top: 'airbox', bottom: 'ambient', startOnTop: false };
+    case 'exhaust':
+      return { ...base, top: 'valve', bottom: 'outlet', startOnTop: true };
+    case 'resonator':
+      return { ...base, top: 'runner', bottom: m.end === 'cavity' ? 'cavity' : 'closed', startOnTop: true };
+  }
 }
 
 /** |mass imbalance| per cycle above which the status line warns [-] (analysis/mass-balance.ts) */

@@ -4,11 +4,17 @@
  * every unit conversion stays in src/case), the values the panel shows, the
  * sweep plan, and saving. An interface, so tests can give a fake one.
  */
-import { basename } from 'node:path';
+import { basename, dirname, extname, join, resolve } from 'node:path';
+import { DEFAULT_OUTPUT_ASSUMPTIONS } from '../analysis/estimates.js';
 import type { EngineModel } from '../core/model.js';
 import { buildCase, loadCase, UNITS, type LoadedCase } from '../case/index.js';
-import { FIELDS, sectionFields, type FieldDef } from './fields.js';
-import { fileExists, saveDirFor, saveEditedCase, suggestSavePath } from './save.js';
+import { liftByDegree } from '../case/lift-file.js';
+import { dynoAsEta } from '../analysis/dyno.js';
+import { density } from '../core/gas.js';
+import { sweptVolume } from '../core/kinematics.js';
+import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
+import { fileExists, saveDirFor, saveEditedCase, suggestSavePath, writeFileAtomic } from './save.js';
+import { packageVersion } from '../cli/package-root.js';
 import type { Edit } from './state.js';
 
 export interface SweepPlan {
@@ -31,6 +37,50 @@ export interface CaseSession {
   exists: (path: string) => Promise<boolean>;
   /** save to `path` (absolute or relative to the cwd); returns the absolute path written */
   save: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
+  /** the first free name for a report of this case */
+  suggestReportPath: () => Promise<string>;
+  /** write the HTML report of the case with `edits` to `path`; returns the absolute path written */
+  report: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
+  /** the measured data the case names (its measuredTrace, intake.liftFile and measured keys) */
+  measured?: SessionMeasured | undefined;
+}
+
+export interface SessionMeasured {
+  /** a runner pressure trace: absolute [Pa] per degree, the sensor's distance from the valve [m] */
+  trace?: { byDegree: Float64Array; sensorAt: number; file: string } | undefined;
+  /** the logged intake valve lift [m] per degree (NaN off the log) */
+  lift?: Float64Array | undefined;
+  /** dyno points on the ηv scale (a torque or power through the case's estimate assumptions) */
+  dyno?: { file: string; points: { rpm: number; eta: number }[] } | undefined;
+}
+
+/** What the views show of a case's measured files. */
+export function measuredOf(loaded: LoadedCase): SessionMeasured | undefined {
+  const f = loaded.files;
+  const m = loaded.model;
+  const e = loaded.case.estimate ?? {};
+  const refMass = density(m.ambient.pressure, m.ambient.temperature) * sweptVolume(m.engine);
+  const assumptions = {
+    ...(e.airFuelRatio !== undefined ? { airFuelRatio: e.airFuelRatio } : {}),
+    ...(e.fuelHeatingValue !== undefined ? { fuelHeatingValue: e.fuelHeatingValue } : {}),
+    ...(e.brakeEfficiency !== undefined ? { brakeEfficiency: e.brakeEfficiency } : {}),
+  };
+  const out: SessionMeasured = {
+    ...(f.trace ? { trace: { byDegree: f.trace.byDegree, sensorAt: f.trace.sensorAt, file: f.trace.log.file } } : {}),
+    ...(f.intake.lift ? { lift: liftByDegree(f.intake.lift.log) } : {}),
+    ...(f.dyno
+      ? {
+          dyno: {
+            file: f.dyno.file,
+            points: f.dyno.points.flatMap((p) => {
+              const eta = dynoAsEta(p, refMass, assumptions);
+              return eta === undefined ? [] : [{ rpm: p.rpm, eta }];
+            }),
+          },
+        }
+      : {}),
+  };
+  return Object.keys(out).length > 0 ? out : undefined;
 }
 
 /** A value in model units → the display unit `unitWord` ('' = as is), by the case loader's unit table. */
@@ -71,17 +121,26 @@ export function sweepPlanOf(loaded: LoadedCase): SweepPlan {
 /** The panel's fields of a loaded case and their values, in display units. */
 export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: Record<string, number> } {
   const c = loaded.case;
-  const raw = loaded.data as { runner?: Record<string, unknown> };
+  const raw = loaded.data as { runner?: Record<string, unknown>; inlet?: { snorkel?: Record<string, unknown> }; exhaust?: { pipe?: Record<string, unknown> } };
   const plainRunner = raw.runner !== undefined && 'length' in raw.runner && !('sections' in raw.runner);
+  // a pipe given as length and diameter (not as sections) shows both
+  const plain = (p: Record<string, unknown> | undefined) => p !== undefined && 'length' in p && !('sections' in p);
+  const snorkel = c.inlet.kind === 'plenum' && plain(raw.inlet?.snorkel) ? c.inlet.snorkel?.sections[0] : undefined;
+  const exhaustPipe = plain(raw.exhaust?.pipe) ? c.exhaust.pipe?.sections[0] : undefined;
   const si: Record<string, number | undefined> = {
     rpm: c.rpm,
     'runner.length': plainRunner ? c.runner.sections[0]?.length : undefined,
     'runner.diameter': plainRunner ? c.runner.sections[0]?.diameterStart : undefined,
     'inlet.volume': c.inlet.kind === 'plenum' ? c.inlet.volume : undefined,
-    'intake.opens': c.intake.opens,
-    'intake.closes': c.intake.closes,
-    'exhaust.opens': c.exhaust.opens,
-    'exhaust.closes': c.exhaust.closes,
+    'inlet.snorkel.length': snorkel?.length,
+    'inlet.snorkel.diameter': snorkel?.diameterStart,
+    'exhaust.pipe.length': exhaustPipe?.length,
+    'exhaust.pipe.diameter': exhaustPipe?.diameterStart,
+    // a valve with a lift log takes its events from the log: not offered for editing
+    'intake.opens': c.intake.liftFile === undefined ? c.intake.opens : undefined,
+    'intake.closes': c.intake.liftFile === undefined ? c.intake.closes : undefined,
+    'exhaust.opens': c.exhaust.liftFile === undefined ? c.exhaust.opens : undefined,
+    'exhaust.closes': c.exhaust.liftFile === undefined ? c.exhaust.closes : undefined,
     'ambient.pressure': c.ambient.pressure,
     'ambient.temperature': c.ambient.temperature,
   };
@@ -92,9 +151,25 @@ export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: R
     si[`runner.sections.${i}.diameterStart`] = sec.diameterStart;
     si[`runner.sections.${i}.diameterEnd`] = sec.diameterEnd;
   });
-  // the runner's sections take the place of its length and diameter
+  const resonators: FieldDef[] = [];
+  (c.runner.resonator ?? []).forEach((r, i) => {
+    const fs = resonatorFields(i, r.kind);
+    resonators.push(...fs);
+    const base = `runner.resonator.${i}`;
+    si[`${base}.at`] = r.at;
+    if (r.kind === 'tube') {
+      si[`${base}.length`] = r.length;
+      si[`${base}.diameter`] = r.diameter;
+    } else {
+      si[`${base}.neckLength`] = r.neckLength;
+      si[`${base}.neckDiameter`] = r.neckDiameter;
+      si[`${base}.volume`] = r.volume;
+    }
+  });
+  // the runner's sections take the place of its length and diameter; its resonators follow
   const at = FIELDS.findIndex((f) => f.path === 'runner.length');
-  const ordered = [...FIELDS.slice(0, at), ...sections, ...FIELDS.slice(at)];
+  const after = FIELDS.findIndex((f) => f.path === 'inlet.volume');
+  const ordered = [...FIELDS.slice(0, at), ...sections, ...FIELDS.slice(at, after), ...resonators, ...FIELDS.slice(after)];
   const fields: FieldDef[] = [];
   const values: Record<string, number> = {};
   for (const f of ordered) {
@@ -122,5 +197,54 @@ export async function openCase(file: string): Promise<CaseSession> {
     suggestSavePath: async () => suggestSavePath(file, fileExists, await saveDirFor(file)),
     exists: fileExists,
     save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),
+    measured: measuredOf(loaded),
+    suggestReportPath: async () => suggestReportPath(file, fileExists, await saveDirFor(file)),
+    report: async (edits, path, overwrite) => {
+      const edited = buildCase(structuredClone(raw), file, { set: setsOf(edits) });
+      const plan = sweepPlanOf(edited);
+      const html = await reportOfCase(edited, file, plan);
+      const full = resolve(path);
+      await writeFileAtomic(full, html, overwrite);
+      return full;
+    },
   };
+}
+
+/** demo.yaml → demo-report.html, then demo-report-2.html … (the first that does not exist) in `dir` */
+export async function suggestReportPath(caseFile: string, exists: (p: string) => Promise<boolean> = fileExists, dir: string = dirname(caseFile)): Promise<string> {
+  const stem = basename(caseFile, extname(caseFile));
+  for (let n = 1; n < 10000; n++) {
+    const candidate = join(dir, `${stem}-report${n === 1 ? '' : `-${n}`}.html`);
+    if (!(await exists(candidate))) return candidate;
+  }
+  return join(dir, `${stem}-report.html`);
+}
+
+/**
+ * The report of a loaded case over the view's sweep plan (the speeds the
+ * Sweep view shows), the same document as \`tractwave report\` makes. The
+ * report modules (and vega) are loaded only when a report is asked for.
+ */
+export async function reportOfCase(loaded: LoadedCase, file: string, plan: SweepPlan): Promise<string> {
+  const { buildReport, gatherReport } = await import('../report/index.js');
+  const c = loaded.case;
+  const assumptions = {
+    airFuelRatio: c.estimate?.airFuelRatio ?? DEFAULT_OUTPUT_ASSUMPTIONS.airFuelRatio,
+    fuelHeatingValue: c.estimate?.fuelHeatingValue ?? DEFAULT_OUTPUT_ASSUMPTIONS.fuelHeatingValue,
+    brakeEfficiency: c.estimate?.brakeEfficiency ?? DEFAULT_OUTPUT_ASSUMPTIONS.brakeEfficiency,
+  };
+  const data = await gatherReport({
+    design: { name: loaded.model.name || basename(file), file: basename(file), case: c, model: loaded.model },
+    rpms: plan.rpms,
+    band: plan.band,
+    assumptions,
+  });
+  const now = new Date();
+  const built = await buildReport(data, {
+    generatedAt: `${now.toISOString().slice(0, 16).replace('T', ' ')} UTC`,
+    version: packageVersion(),
+    units: 'metric',
+    speedsFrom: "the terminal view's sweep",
+  });
+  return built.html;
 }

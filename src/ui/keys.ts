@@ -61,6 +61,7 @@ export const HELP: readonly HelpGroup[] = [
     entries: [
       { keys: 'p', what: 'pin as baseline' },
       { keys: 't', what: 'teaching line' },
+      { keys: 'm', what: 'measured data on/off' },
     ],
   },
   {
@@ -70,6 +71,7 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '1 2 3 4', what: 'go to a view' },
       { keys: '+ -', what: `speed ±${RPM_STEP} rpm` },
       { keys: 's  x', what: 'run / stop sweep' },
+      { keys: '↑ ↓ (Runner)', what: 'pick the pipe' },
     ],
   },
   {
@@ -78,7 +80,7 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '↑ ↓', what: 'choose a value' },
       { keys: 'enter', what: 'type it, enter runs' },
       { keys: ',  .', what: 'step down / up' },
-      { keys: 'w', what: 'save to a new file' },
+      { keys: 'w  r', what: 'save case / report' },
     ],
   },
 ];
@@ -137,6 +139,10 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     if (input === '.') return { type: 'nudge', dir: 1 };
     if (input === 'w') return { type: 'beginSave' };
   }
+  if (s.view === 'runner') {
+    if (key.upArrow) return { type: 'pipe', by: -1 };
+    if (key.downArrow) return { type: 'pipe', by: 1 };
+  }
   if (s.view === 'sweep') {
     if (input === 's' || key.return) return { type: 'sweepStart' };
     if (input === 'x') return { type: 'sweepStop' };
@@ -170,6 +176,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'speed', by: -RPM_STEP };
     case 't':
       return { type: 'toggleTeach' };
+    case 'm':
+      return { type: 'toggleMeasured' };
     case 'z':
       return { type: 'zoom', dir: 1 };
     case 'Z':
@@ -180,6 +188,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'showView', view: 'sweep' };
     case 'w':
       return { type: 'beginSave' };
+    case 'r':
+      return { type: 'beginReport' };
   }
   if (/^[1-4]$/.test(input)) {
     const view = VIEWS[Number(input) - 1];

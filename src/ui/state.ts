@@ -50,6 +50,8 @@ export interface PointShown {
   upstream: 'ambient' | 'plenum';
   /** the field values it was run with (display units); set by the reducer */
   values?: Record<string, number> | undefined;
+  /** the case's measured pressure trace against this result (analysis/trace-compare.ts) */
+  traceCheck?: { model: ArrayLike<number>; verdict: string } | undefined;
 }
 
 export interface SweepCurve {
@@ -75,8 +77,12 @@ export interface UiState {
   /** fractional degrees carried between play ticks */
   playCarry: number;
   zoomIndex: number;
+  /** which pipe the Runner view shows: 0 the runner, then the case's other pipes */
+  pipeIndex: number;
   help: boolean;
   teach: boolean;
+  /** draw the case's measured data beside the model (m) */
+  measured: boolean;
   quit: boolean;
 
   /** overrides applied on top of the case file, in order */
@@ -107,8 +113,10 @@ export interface UiState {
   /** the edits the current sweep was run with */
   sweepEdits?: Edit[] | undefined;
 
-  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; overwrite: boolean } | undefined;
+  /** a file being written: the edited case ('case', key w) or the report of it ('report', key r) */
+  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; overwrite: boolean; kind: 'case' | 'report' } | undefined;
   suggestedSavePath: string;
+  suggestedReportPath: string;
   message?: { text: string; tone: 'info' | 'error' } | undefined;
 }
 
@@ -125,7 +133,9 @@ export type Action =
   | { type: 'toggleHelp' }
   | { type: 'closeHelp' }
   | { type: 'toggleTeach' }
+  | { type: 'toggleMeasured' }
   | { type: 'zoom'; dir: 1 | -1 }
+  | { type: 'pipe'; by: number }
   | { type: 'pinBaseline' }
   | { type: 'quit' }
   | { type: 'select'; by: number }
@@ -144,11 +154,13 @@ export type Action =
   | { type: 'sweepFailed'; id: number; message: string }
   | { type: 'pinSweep' }
   | { type: 'beginSave' }
+  | { type: 'beginReport' }
   | { type: 'saveChecked'; exists: boolean }
   | { type: 'confirm'; yes: boolean }
   | { type: 'saved'; path: string; next: string }
   | { type: 'saveFailed'; message: string }
   | { type: 'suggestSave'; path: string }
+  | { type: 'suggestReport'; path: string }
   | { type: 'message'; text: string; tone: 'info' | 'error' };
 
 export interface InitOptions {
@@ -158,6 +170,7 @@ export interface InitOptions {
   fields?: readonly FieldDef[];
   sweepPlan: { rpms: number[]; band: { from: number; to: number } };
   suggestedSavePath: string;
+  suggestedReportPath?: string;
   teach?: boolean;
 }
 
@@ -170,8 +183,10 @@ export function initialState(o: InitOptions): UiState {
     rateIndex: 2,
     playCarry: 0,
     zoomIndex: 0,
+    pipeIndex: 0,
     help: false,
     teach: o.teach ?? true,
+    measured: true,
     quit: false,
     edits: [],
     goodEdits: [],
@@ -185,6 +200,7 @@ export function initialState(o: InitOptions): UiState {
     sweepRequest: 0,
     sweepStatus: 'idle',
     suggestedSavePath: o.suggestedSavePath,
+    suggestedReportPath: o.suggestedReportPath ?? '',
   };
 }
 
@@ -332,8 +348,15 @@ export function reduce(s: UiState, a: Action): UiState {
       return { ...s, help: false };
     case 'toggleTeach':
       return { ...s, teach: !s.teach };
+    case 'toggleMeasured':
+      return { ...s, measured: !s.measured, message: { text: s.measured ? 'Measured data hidden (m shows them).' : 'Measured data shown beside the model.', tone: 'info' } };
     case 'zoom':
       return { ...s, zoomIndex: Math.min(ZOOMS.length - 1, Math.max(0, s.zoomIndex + a.dir)) };
+    case 'pipe': {
+      const count = s.point?.result.pipes.length ?? 1;
+      if (count <= 1) return { ...s, pipeIndex: 0, message: { text: 'This case has one pipe, the runner.', tone: 'info' } };
+      return { ...s, pipeIndex: mod(s.pipeIndex + a.by, count), message: undefined };
+    }
     case 'pinBaseline':
       if (!s.point) return s;
       return { ...s, baseline: s.point, message: { text: 'Pinned this result as the baseline.', tone: 'info' } };
@@ -375,7 +398,7 @@ export function reduce(s: UiState, a: Action): UiState {
       return applyValue(s, f, v);
     }
     case 'cancel': {
-      if (s.save) return { ...s, save: undefined, message: { text: 'Not saved.', tone: 'info' } };
+      if (s.save) return { ...s, save: undefined, message: { text: s.save.kind === 'report' ? 'No report written.' : 'Not saved.', tone: 'info' } };
       if (s.editing !== undefined) return { ...s, editing: undefined };
       if (s.help) return { ...s, help: false };
       return s;
@@ -450,7 +473,18 @@ export function reduce(s: UiState, a: Action): UiState {
         view: 'case',
         help: false,
         editing: undefined,
-        save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false },
+        save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false, kind: 'case' },
+        message: undefined,
+      };
+    case 'beginReport':
+      // the prompt is in the case view too
+      return {
+        ...s,
+        view: 'case',
+        help: false,
+        editing: undefined,
+        playing: false,
+        save: { stage: 'typing', path: s.suggestedReportPath, overwrite: false, kind: 'report' },
         message: undefined,
       };
     case 'saveChecked':
@@ -467,6 +501,8 @@ export function reduce(s: UiState, a: Action): UiState {
       if (!a.yes) return { ...s, save: { ...s.save, stage: 'typing' }, message: { text: 'Choose another name.', tone: 'info' } };
       return { ...s, save: { ...s.save, stage: 'saving', overwrite: true } };
     case 'saved':
+      if (s.save?.kind === 'report')
+        return { ...s, save: undefined, suggestedReportPath: a.next, message: { text: `Report written to ${a.path}`, tone: 'info' } };
       return {
         ...s,
         save: undefined,
@@ -477,6 +513,8 @@ export function reduce(s: UiState, a: Action): UiState {
       return { ...s, save: undefined, message: { text: a.message, tone: 'error' } };
     case 'suggestSave':
       return { ...s, suggestedSavePath: a.path };
+    case 'suggestReport':
+      return { ...s, suggestedReportPath: a.path };
     case 'message':
       return { ...s, message: { text: a.text, tone: a.tone } };
   }

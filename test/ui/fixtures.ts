@@ -99,8 +99,9 @@ export function syntheticResult(o: SyntheticOptions = {}): PointResult {
     events: { ...EVENTS },
     history: [1, 2, 3],
     stats: { nodes, steps: 1000, scheme: 'characteristics' },
-    trace: { crank, valvePressure, valveFlow, cylinderPressure, cylinderMass, lift, exhaustLift, inletFlow, plenumPressure },
+    trace: { crank, valvePressure, valveFlow, cylinderPressure, cylinderMass, lift, exhaustLift, inletFlow, plenumPressure, exhaustPortPressure: new Float64Array(n).fill(AMBIENT) },
     runnerMap: { x, pressure },
+    pipes: [{ name: 'runner', role: 'runner', label: 'runner: upstream end to valve', length: L, start: 'upstream end', end: 'valve', x, pressure }],
   };
 }
 
@@ -145,11 +146,14 @@ function num(text: string): number {
 
 export interface FakeSession extends CaseSession {
   saved: { edits: readonly Edit[]; path: string; overwrite: boolean }[];
+  /** the reports asked for (the fake writes none) */
+  reports: { edits: readonly Edit[]; path: string; overwrite: boolean }[];
   existing: Set<string>;
 }
 
 export function fakeSession(): FakeSession {
   const saved: FakeSession['saved'] = [];
+  const reports: FakeSession['reports'] = [];
   const existing = new Set<string>(['/cases/synthetic-2.yaml']);
   return {
     file: '/cases/synthetic.yaml',
@@ -184,7 +188,19 @@ export function fakeSession(): FakeSession {
       existing.add(path);
       return path;
     },
+    async suggestReportPath() {
+      for (let k = 1; ; k++) {
+        const p = `/cases/synthetic-report${k === 1 ? '' : `-${k}`}.html`;
+        if (!existing.has(p)) return p;
+      }
+    },
+    async report(edits, path, overwrite) {
+      reports.push({ edits, path, overwrite });
+      existing.add(path);
+      return path;
+    },
     saved,
+    reports,
     existing,
   };
 }
@@ -212,7 +228,7 @@ export function fakeEngine(): EngineService & { runs: EngineModel[] } {
       const result = resultFor(model);
       return {
         result,
-        warmStart: { pressure: [], velocity: [], temperature: [] },
+        warmStart: { pipes: [], chambers: [] },
         pulse: { verdict: 'synthetic verdict: compression peaks 10° before the valve closes', roundTripDeg: 42, openingNote: 'synthetic opening note' },
       };
     },

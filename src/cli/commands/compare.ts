@@ -3,6 +3,7 @@
  * their curves overlaid, the difference per speed, the band means side by
  * side and where each one wins.
  */
+import { networkLine } from '../../analysis/network-line.js';
 import { performance } from 'node:perf_hooks';
 import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
 import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
@@ -11,6 +12,8 @@ import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../ar
 import { SET_OPTION, type Command } from '../command.js';
 import { fix, table } from '../format.js';
 import { writeFileAtomic } from '../write-file.js';
+import { chartPoints, dynoBlockTwo, dynoJsonTwo, outputChart } from '../dyno-output.js';
+import { dynoOf, MEASURED_OPTION } from '../measured-options.js';
 import {
   assumptionsOf,
   BAND_OPTION,
@@ -34,6 +37,7 @@ const OPTIONS: OptionSpec[] = [
   BAND_OPTION,
   { ...SET_OPTION, description: 'override a value in both cases, e.g. --set numerics.meshSize=5mm (repeatable)' },
   JOBS_OPTION,
+  { ...MEASURED_OPTION, description: "a dyno sheet (CSV: rpm and torque_Nm, torque_lbft, power_kW, power_hp or ve_pct) shown beside both (default: A's measured key)" },
   { name: 'json', type: 'boolean', description: 'print both curves and the differences as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed with both curves to FILE' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
@@ -70,7 +74,9 @@ ${optionHelp(OPTIONS)}
 
 --json prints: a {name, file, points [...], band {...}, bestRpm}, b {...},
 band {from, to}, difference [{rpm, difference}] (B − A, fraction),
-wins [{winner, from, to, largestDifference}], stats {jobs, wallSeconds}.
+wins [{winner, from, to, largestDifference}], stats {jobs, wallSeconds}; with a
+dyno sheet also measured [{rpm, torque?, power?, volumetricEfficiency?,
+a {model, difference}, b {model, difference}}] and measuredFile.
 
 examples
   tractwave compare cases/demo.yaml cases/airbox-single.yaml
@@ -83,6 +89,7 @@ examples
     const jobs = parseJobs(args);
     const a = await loadForSweep(fileA!, args, io);
     const b = await loadForSweep(fileB!, args, io);
+    const dyno = await dynoOf(args, a, io.cwd);
     const grid = sweepGrid(args, a.case);
     const band = chooseBand(args, a.case, grid);
     const bar = progress(io, 'compare');
@@ -138,6 +145,7 @@ examples
         difference: rpms.map((rpm, i) => ({ rpm, difference: (eb[i] ?? Number.NaN) - (ea[i] ?? Number.NaN) })),
         wins: spans,
         stats: { jobs, wallSeconds },
+        ...(dyno ? { measured: dynoJsonTwo(pa, pb, dyno), measuredFile: dyno.file } : {}),
       };
       io.stdout.write(`${JSON.stringify(json)}\n`);
       return 0;
@@ -155,11 +163,19 @@ examples
     const out: string[] = [
       `compare over ${fix(rpms[0]!, 0)}–${fix(rpms[rpms.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm (${rpms.length * 2} points, ${fix(wallSeconds, 1)} s)`,
       `  A (line ─): ${a.model.name} [${fileA}]`,
+      `    ${networkLine(a.model)}`,
       `  B (dots ·): ${b.model.name} [${fileB}]`,
+      `    ${networkLine(b.model)}`,
       '',
-      'volumetric efficiency ηv [%] against speed',
+      `volumetric efficiency ηv [%] against speed${dyno?.kinds.includes('volumetricEfficiency') ? ` (● measured, ${dyno.file})` : ''}`,
     ];
-    out.push(...curveChart(rpms, [{ values: ea.map((v) => v * 100) }, { values: eb.map((v) => v * 100) }], { band }));
+    out.push(
+      ...curveChart(rpms, [{ values: ea.map((v) => v * 100) }, { values: eb.map((v) => v * 100) }], {
+        band,
+        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency') } : {}),
+      }),
+    );
+    if (dyno) out.push(...outputChart(rpms, [pa, pb], dyno, { band }));
     out.push('');
     io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n');
     const rows = rpms.map((rpm, i) => {
@@ -169,6 +185,7 @@ examples
       return [fix(rpm, 0), fix(x * 100, 1), fix(y * 100, 1), signed((y - x) * 100, 1), w === 'even' ? '=' : w];
     });
     io.stdout.write(table(['rpm', 'A ηv %', 'B ηv %', 'B−A pts', 'better'], rows));
+    if (dyno) io.stdout.write(dynoBlockTwo(pa, pb, dyno));
     const ma = sa.band.meanVolumetricEfficiency;
     const mb = sb.band.meanVolumetricEfficiency;
     const lead = winnerAt(ma, mb);
