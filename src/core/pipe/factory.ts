@@ -8,9 +8,9 @@ import { createConservativeScheme } from './fv.js';
 /**
  * The scheme used when a case does not name one: the conservative
  * finite-volume scheme (fv.ts), the reference. The characteristics scheme
- * (moc.ts, in conservation form) agrees with it on ηv within 0.04–0.16 % on
- * average over the demo cases' sweeps at the default 10 mm mesh (0.8 % at
- * worst) and on wave timing (test/core/schemes-agree.test.ts), but it is
+ * (moc.ts, in conservation form) agrees with it on ηv within 0.04–0.15 % on
+ * average over the bundled cases' sweeps (1.4 % at the worst point) and on
+ * wave timing (test/core/schemes-agree.test.ts), but it is
  * checked over a narrower range of strong waves (moc.ts header), so it
  * stays selectable (numerics.scheme) for teaching and comparison.
  */
