@@ -2,7 +2,9 @@
  * Output of one simulated operating point: the JSON of `run` (DESIGN §3),
  * the per-degree CSV trace, and the text summary for a tuner.
  */
+import { printable } from '../case/printable.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
+import { resultProblems, resultWarnings } from '../analysis/plausibility.js';
 import type { PointResult } from '../core/model.js';
 import type { PulseTiming } from '../analysis/pulse.js';
 import type { LoadedCase } from '../case/load.js';
@@ -38,9 +40,11 @@ export interface RunJson {
     cylinderMass: number[];
     lift: number[];
   };
+  /** the warnings printed on stderr, without the "warning: " prefix */
+  warnings: string[];
 }
 
-export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number): RunJson {
+export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number, warnings: readonly string[] = []): RunJson {
   const t = r.trace;
   return {
     rpm: r.rpm,
@@ -67,6 +71,7 @@ export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number)
       cylinderMass: Array.from(t.cylinderMass),
       lift: Array.from(t.lift),
     },
+    warnings: warnings.map((w) => w.replace(/^warning: /, '')),
   };
 }
 
@@ -105,6 +110,7 @@ export function runWarnings(r: PointResult, maxCycles: number): string[] {
     w.push(
       `warning: mass imbalance ${pct(r.massImbalance, 2)} (runner inlet vs intake valve) is above ${pct(MASS_IMBALANCE_WARNING)}: try a smaller numerics.meshSize`,
     );
+  for (const x of resultWarnings(r)) w.push(`warning: ${x}`);
   return w;
 }
 
@@ -121,11 +127,12 @@ export function eventLines(events: PointResult['events']): string {
 export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTiming, wallSeconds: number): string {
   const m = loaded.model;
   let s = '';
-  s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${loaded.file})` : ''}\n`;
+  s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
   s += r.converged
     ? `  periodic after ${r.cycles} cycles (tolerance ${m.numerics.tolerance})\n\n`
     : `  NOT converged after ${r.cycles} cycles: figures are from the last cycle run\n\n`;
-  s += row('volumetric efficiency', pct(r.volumetricEfficiency));
+  const implausible = resultProblems({ volumetricEfficiency: r.volumetricEfficiency, residualFraction: r.residualFraction }).length > 0;
+  s += row('volumetric efficiency', `${pct(r.volumetricEfficiency)}${implausible ? '  (NOT a breathing figure: see the warning)' : ''}`);
   s += row('delivered mass', `${mg(r.deliveredMass)} per cycle (through the intake valve)`);
   s += row('trapped mass at IVC', mg(r.trappedMass));
   s += row('residual gas', pct(r.residualFraction));

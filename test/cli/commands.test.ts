@@ -13,6 +13,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const RUN_FIELDS = [
   'rpm', 'converged', 'cycles', 'volumetricEfficiency', 'deliveredMass', 'inletMass', 'massImbalance', 'trappedMass',
   'ivcPressure', 'residualFraction', 'valvePressureAtIvo', 'valvePressureAtIvc', 'peakReverseFlow', 'events', 'pulse', 'stats', 'trace',
+  'warnings',
 ];
 
 describe('run --json on the demo (DESIGN §3)', async () => {

@@ -1,16 +1,17 @@
 /** `tractwave check CASE`: validate, print derived geometry and hand estimates. */
+import { printable } from '../../case/printable.js';
 import { clearanceVolume, sweptVolume } from '../../core/kinematics.js';
 import { curtainArea } from '../../core/valve.js';
 import { sectionsVolume, totalLength } from '../../core/pipe/mesh.js';
 import { caseEstimates, END_CORRECTION } from '../../analysis/estimates.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
 import { card, cc, cm2, deg, fix, hz, mm, row, rpm } from '../format.js';
 import type { LoadedCase } from '../../case/load.js';
 import { wrap720 } from '../../case/to-model.js';
 import { eventLines } from '../run-output.js';
 
-const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION];
+const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION, ALLOW_EXTREME_OPTION];
 
 export function checkReport(loaded: LoadedCase): string {
   const m = loaded.model;
@@ -23,7 +24,7 @@ export function checkReport(loaded: LoadedCase): string {
   const hi = c.sweep?.to ?? m.rpm * 1.5;
   const est = caseEstimates(m, lo, hi);
   const a = est.soundSpeed;
-  let s = `${m.name}${loaded.file ? `  (${loaded.file})` : ''}: the case is valid\n\ngeometry\n`;
+  let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}: the case is valid\n\ngeometry\n`;
   s += row('displacement', `${cc(vd)}  (bore ${mm(m.engine.bore)} x stroke ${mm(m.engine.stroke)})`);
   s += row('clearance volume', `${cc(vc)}  (compression ratio ${fix(m.engine.compressionRatio, 2)})`);
   s += row('rod / crank radius', fix(m.engine.rod / (m.engine.stroke / 2), 2));

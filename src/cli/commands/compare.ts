@@ -3,12 +3,14 @@
  * their curves overlaid, the difference per speed, the band means side by
  * side and where each one wins.
  */
+import { printable } from '../../case/printable.js';
 import { performance } from 'node:perf_hooks';
 import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
 import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
 import { runSweeps } from '../../analysis/worker-pool.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
+import { combinedCost, engineCost } from '../../analysis/cost.js';
 import { fix, table } from '../format.js';
 import { writeFileAtomic } from '../write-file.js';
 import {
@@ -37,6 +39,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print both curves and the differences as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed with both curves to FILE' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 function spanText(s: WinSpan): string {
@@ -85,6 +89,12 @@ examples
     const b = await loadForSweep(fileB!, args, io);
     const grid = sweepGrid(args, a.case);
     const band = chooseBand(args, a.case, grid);
+    {
+      // both designs share the workers
+      const ca = engineCost(a.model, grid.values);
+      const cb = engineCost(b.model, grid.values);
+      checkCost(combinedCost([ca, cb], jobs), ca.seconds >= cb.seconds ? a.model : b.model, args, '--rpm');
+    }
     const bar = progress(io, 'compare');
     const t0 = performance.now();
     let pa: SweepPoint[];
@@ -154,8 +164,8 @@ examples
 
     const out: string[] = [
       `compare over ${fix(rpms[0]!, 0)}–${fix(rpms[rpms.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm (${rpms.length * 2} points, ${fix(wallSeconds, 1)} s)`,
-      `  A (line ─): ${a.model.name} [${fileA}]`,
-      `  B (dots ·): ${b.model.name} [${fileB}]`,
+      `  A (line ─): ${a.model.name} [${printable(fileA!)}]`,
+      `  B (dots ·): ${b.model.name} [${printable(fileB!)}]`,
       '',
       'volumetric efficiency ηv [%] against speed',
     ];

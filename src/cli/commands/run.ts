@@ -4,9 +4,11 @@ import { simulatePoint } from '../../core/engine.js';
 import { pulseTiming } from '../../analysis/pulse.js';
 import { CaseError } from '../../case/errors.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { engineCost } from '../../analysis/cost.js';
+import { cycleProgress } from '../progress.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
-import { writeFileAtomic } from '../write-file.js';
+import { checkOutputFile, writeFileAtomic } from '../write-file.js';
 
 const OPTIONS: OptionSpec[] = [
   RPM_OPTION,
@@ -14,6 +16,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units, crank degrees)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write the per-degree trace of the converged cycle to FILE' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 export const runCommand: Command = {
@@ -35,11 +39,18 @@ inletMass, massImbalance, trappedMass, ivcPressure, residualFraction,
 valvePressureAtIvo, valvePressureAtIvc, peakReverseFlow, events {ivo, ivc,
 evo, evc}, pulse {...}, stats {nodes, steps, wallSeconds, scheme}, trace
 {crank, valvePressure, valveFlow, cylinderPressure, cylinderMass, lift}
-(720 samples, one per crank degree). SI units: kg, Pa, kg/s, m; angles θ in
-degrees with 0 = TDC at the start of the intake stroke.
+(720 samples, one per crank degree), warnings [...] (the stderr warnings as
+text). SI units: kg, Pa, kg/s, m; angles θ in degrees with 0 = TDC at the
+start of the intake stroke.
 
 A run that does not converge still exits 0, with converged: false and a
-warning on stderr.
+warning on stderr. So does a result no engine gives (ηv below 0 or above
+200 %, residual gas above 50 %): the warning says what it means.
+
+Values outside the ranges engines meet (ambient, back pressure, gas and
+wall temperatures, valve sizes) are refused unless --allow-extreme. A run
+estimated to take over 15 minutes is refused unless --allow-long; on a
+terminal a run of more than a few seconds shows its progress.
 
 examples
   tractwave run cases/demo.yaml
@@ -53,13 +64,24 @@ examples
     if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
     if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
     const loaded = await loadCaseFromArgs(file!, args, io);
+    // a file that may not be written is refused before the run, not after it
+    if (csv !== undefined) await checkOutputFile(csv, { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+    const cost = engineCost(loaded.model);
+    checkCost(cost, loaded.model, args, '--rpm');
+    const bar = cycleProgress(io, cost);
     const t0 = performance.now();
-    const { result } = simulatePoint(loaded.model);
+    let result;
+    try {
+      result = simulatePoint(loaded.model, bar ? { onCycle: bar.tick } : {}).result;
+    } finally {
+      bar?.done();
+    }
     const wallSeconds = (performance.now() - t0) / 1000;
     const pulse = pulseTiming(result, loaded.model);
-    for (const w of runWarnings(result, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
+    const warnings = runWarnings(result, loaded.model.numerics.maxCycles);
+    for (const w of warnings) io.stderr.write(`${w}\n`);
     if (args.flag('json')) {
-      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds))}\n`);
+      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, warnings))}\n`);
       return 0;
     }
     if (csv !== undefined) {

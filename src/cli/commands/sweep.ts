@@ -6,7 +6,8 @@
  * options or the case, --jobs, progress on stderr, the curve chart.
  */
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
-import { existsSync } from 'node:fs';
+import { curveWarnings } from '../../analysis/plausibility.js';
+import { engineCost } from '../../analysis/cost.js';
 import { resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import * as asciichart from 'asciichart';
@@ -16,12 +17,14 @@ import { summariseSweep, SWEEP_CHUNK_POINTS, type SweepPoint, type SweepSummary 
 import { defaultJobs, runSweep } from '../../analysis/worker-pool.js';
 import { CaseError } from '../../case/errors.js';
 import { loadCase, type LoadedCase } from '../../case/load.js';
-import type { Case } from '../../case/schema.js';
+import { speedProblem, type Case } from '../../case/schema.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec, type ParsedArgs } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
 import { fix, table, wrap } from '../format.js';
 import type { CliIo } from '../io.js';
-import { writeFileAtomic } from '../write-file.js';
+import { writeError, writeFileAtomic } from '../write-file.js';
+import { inspectTargetSync } from '../../case/target.js';
+import { timeLeft } from '../progress.js';
 
 /** speed range used when neither --rpm nor the case's `sweep` key gives one */
 export const DEFAULT_SWEEP = { from: 3000, to: 9000, step: 250 } as const;
@@ -63,13 +66,26 @@ export function parseJobs(args: ParsedArgs): number {
 /** The speeds of a sweep: --rpm, else the case's sweep key, else DEFAULT_SWEEP. */
 export function sweepGrid(args: ParsedArgs, c: Case): NumberGrid {
   const text = args.string('rpm');
+  let grid: NumberGrid;
   try {
-    if (text !== undefined) return parseGrid(text, '--rpm', { units: ['rpm'] });
-    const s = c.sweep ?? DEFAULT_SWEEP;
-    return parseGrid(`${s.from}:${s.to}:${s.step}`, c.sweep ? 'sweep' : '--rpm');
+    if (text !== undefined) grid = parseGrid(text, '--rpm', { units: ['rpm'] });
+    else {
+      const s = c.sweep ?? DEFAULT_SWEEP;
+      grid = parseGrid(`${s.from}:${s.to}:${s.step}`, c.sweep ? 'sweep' : '--rpm');
+    }
   } catch (e) {
     throw asInputError(e);
   }
+  // the same speed limits as the case's rpm and --rpm N (case/schema.ts speedProblem)
+  const option = text !== undefined || !c.sweep ? '--rpm' : 'sweep';
+  for (const [v, end] of [
+    [grid.values[0]!, 'FROM'],
+    [grid.values[grid.values.length - 1]!, 'TO'],
+  ] as const) {
+    const problem = speedProblem(v);
+    if (problem) throw new CaseError(option, `${end} ${problem}`, 'option');
+  }
+  return grid;
 }
 
 export interface BandChoice {
@@ -127,14 +143,15 @@ export function assumptionsOf(c: Case): OutputAssumptions {
   };
 }
 
-/** A progress line on stderr when it is a terminal; `done()` clears it. */
+/** A progress line on stderr when it is a terminal, with the time left; `done()` clears it. */
 export function progress(io: CliIo, what: string): { tick: (done: number, total: number, rpm: number) => void; done: () => void } {
   if (!io.stderrIsTTY) return { tick: () => {}, done: () => {} };
   let shown = false;
+  const t0 = performance.now();
   return {
     tick: (done, total, rpm) => {
       shown = true;
-      io.stderr.write(`\r\x1b[K${what}: ${done}/${total} points (last ${fix(rpm, 0)} rpm)`);
+      io.stderr.write(`\r\x1b[K${what}: ${done}/${total} points (last ${fix(rpm, 0)} rpm${timeLeft(t0, done, total)})`);
     },
     done: () => {
       if (shown) io.stderr.write('\r\x1b[K');
@@ -158,6 +175,7 @@ export function sweepWarnings(points: readonly SweepPoint[], maxCycles: number, 
       `warning: ${who}mass balance off by more than ${MASS_IMBALANCE_LIMIT * 100} % at ${leaky.map((p) => fix(p.rpm, 0)).join(', ')} rpm ` +
         '(a finer numerics.meshSize or the conservative scheme helps)',
     );
+  for (const w of curveWarnings(points, label)) out.push(`warning: ${w}`);
   return out;
 }
 
@@ -382,14 +400,22 @@ export function csvAndJsonChoice(args: ParsedArgs, io: CliIo): string | undefine
   const csv = args.string('csv');
   if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
   if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
-  if (csv !== undefined && !args.flag('force') && existsSync(resolve(io.cwd, csv)))
-    throw new CaseError('--csv', `'${csv}' already exists; add --force to overwrite it`, 'option');
+  if (csv !== undefined) {
+    let t;
+    try {
+      t = inspectTargetSync(resolve(io.cwd, csv));
+    } catch (e) {
+      throw writeError(e, csv, '--csv');
+    }
+    if (t.kind === 'other') throw new CaseError('--csv', `'${csv}' is ${t.what}, not a file: it is never replaced; choose a file name`, 'option');
+    if (t.kind === 'file' && !args.flag('force')) throw new CaseError('--csv', `'${csv}' already exists; add --force to overwrite it`, 'option');
+  }
   return csv;
 }
 
-/** Load a case with --set (no --rpm: the speeds are a range here). */
+/** Load a case with --set and --allow-extreme (no --rpm: the speeds are a range here). */
 export async function loadForSweep(file: string, args: ParsedArgs, io: CliIo): Promise<LoadedCase> {
-  return loadCase(file, { set: args.list('set'), cwd: io.cwd });
+  return loadCase(file, { set: args.list('set'), cwd: io.cwd, allowExtreme: args.flag('allow-extreme') });
 }
 
 const OPTIONS: OptionSpec[] = [
@@ -400,6 +426,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed to FILE (header row with units)' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 export interface SweepJson {
@@ -465,6 +493,7 @@ examples
     const loaded = await loadForSweep(file!, args, io);
     const grid = sweepGrid(args, loaded.case);
     const band = chooseBand(args, loaded.case, grid);
+    checkCost(engineCost(loaded.model, grid.values, jobs), loaded.model, args, '--rpm');
     const assumptions = assumptionsOf(loaded.case);
     const bar = progress(io, 'sweep');
     const t0 = performance.now();

@@ -13,7 +13,8 @@ import { CaseError, isCaseError } from '../../case/errors.js';
 import { buildCase, parseYamlText, readCaseText, type LoadedCase } from '../../case/load.js';
 import { UNITS } from '../../case/units.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
+import { combinedCost, engineCost } from '../../analysis/cost.js';
 import { fix, table } from '../format.js';
 import { writeFileAtomic } from '../write-file.js';
 import {
@@ -49,6 +50,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print the ranking as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per design and speed to FILE (header row with units)' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 /** An axis of the grid: the typed values, their SI values, and how to show them. */
@@ -224,19 +227,26 @@ examples
 
     const raw = parseYamlText(await readCaseText(file!, io.cwd), file!);
     const sets = args.list('set');
-    const base = buildCase(raw, file!, { set: sets });
+    const allowExtreme = args.flag('allow-extreme');
+    const base = buildCase(raw, file!, { set: sets, allowExtreme });
     const grid = sweepGrid(args, base.case);
     const band = chooseBand(args, base.case, grid);
     const designs = designGrid(axes);
     if (designs.length > MAX_DESIGNS) throw new CaseError('--vary', `${designs.length} designs is too many (at most ${MAX_DESIGNS}); use larger steps`, 'option');
     const loaded: LoadedCase[] = designs.map((d) => {
       try {
-        return buildCase(raw, file!, { set: [...sets, ...d.sets] });
+        return buildCase(raw, file!, { set: [...sets, ...d.sets], allowExtreme });
       } catch (e) {
         if (isCaseError(e)) throw new CaseError(e.path, `${e.detail} (in the design ${d.sets.join(', ')})`, e.code);
         throw e;
       }
     });
+    {
+      // every design over the same speeds, sharing the workers
+      const costs = loaded.map((l) => engineCost(l.model, grid.values));
+      const worst = costs.reduce((x, y) => (y.seconds > x.seconds ? y : x));
+      checkCost(combinedCost(costs, jobs), loaded[costs.indexOf(worst)]!.model, args, '--vary');
+    }
     const assumptions = assumptionsOf(base.case);
     const bar = progress(io, `tune (${designs.length} designs)`);
     const t0 = performance.now();
