@@ -17,6 +17,8 @@ export interface CliIo {
   stderrIsTTY: boolean;
   /** working directory relative paths are resolved against */
   cwd: string;
+  /** the TERM environment variable ('dumb': no full-screen view) */
+  term?: string;
 }
 
 /** An in-memory CliIo for tests and embedding. */
