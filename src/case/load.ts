@@ -145,6 +145,7 @@ export function parseSetValue(text: string, path: string): unknown {
   try {
     const doc = YAML.parseDocument(text, YAML_OPTIONS);
     const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
+    if (problem && /call stack/i.test(problem.message)) throw new CaseError(path, `--set value '${clip(text)}' is nested too deeply`, 'option');
     if (problem) throw new CaseError(path, `--set value '${clip(text)}' is not a valid YAML value`, 'option');
     v = doc.toJS({ maxAliasCount: MAX_ALIASES });
   } catch (e) {
