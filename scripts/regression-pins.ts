@@ -28,6 +28,8 @@ export const REGENERATE = 'npx tsx scripts/regression-pins.ts';
 
 export interface Pin {
   case: string;
+  /** --set overrides of a variant of the case (none for the case as bundled) */
+  set?: string[];
   scheme: string;
   rpm: number;
   volumetricEfficiency: number;
@@ -48,12 +50,23 @@ export function engineCases(): string[] {
     .map((f) => `cases/${f}`);
 }
 
+/**
+ * Variants pinned beside the bundled cases: parts the bundled cases no longer
+ * use but a user's case may (the airbox fed through an orifice, as the
+ * bundled airbox was before it got its snorkel pipe; pinned then, unchanged
+ * since).
+ */
+export const VARIANTS: readonly { case: string; set: string[] }[] = [
+  { case: 'cases/airbox-single.yaml', set: ['inlet.snorkel=null', 'inlet.feedDiameter=45mm', 'inlet.feedCd=0.75'] },
+];
+
 /** the pinned quantities of one point, computed now */
-export async function computePin(file: string, scheme: string, rpm: number): Promise<Pin> {
-  const loaded = await loadCase(file, { cwd: ROOT, rpm, set: [`numerics.scheme=${scheme}`] });
+export async function computePin(file: string, scheme: string, rpm: number, set: readonly string[] = []): Promise<Pin> {
+  const loaded = await loadCase(file, { cwd: ROOT, rpm, set: [...set, `numerics.scheme=${scheme}`] });
   const { result } = simulatePoint(loaded.model);
   return {
     case: file,
+    ...(set.length > 0 ? { set: [...set] } : {}),
     scheme,
     rpm,
     volumetricEfficiency: result.volumetricEfficiency,
@@ -64,10 +77,10 @@ export async function computePin(file: string, scheme: string, rpm: number): Pro
 
 export async function computeAll(): Promise<Pin[]> {
   const pins: Pin[] = [];
-  for (const file of engineCases()) {
-    const base = await loadCase(file, { cwd: ROOT });
+  for (const v of [...engineCases().map((file) => ({ case: file, set: [] as string[] })), ...VARIANTS]) {
+    const base = await loadCase(v.case, { cwd: ROOT, set: v.set });
     const s = base.case.sweep ?? { from: 3000, to: 9000 };
-    for (const scheme of SCHEMES) for (const rpm of pinSpeeds(s.from, s.to)) pins.push(await computePin(file, scheme, rpm));
+    for (const scheme of SCHEMES) for (const rpm of pinSpeeds(s.from, s.to)) pins.push(await computePin(v.case, scheme, rpm, v.set));
   }
   return pins;
 }
@@ -86,7 +99,7 @@ async function main(): Promise<void> {
     const old = (JSON.parse(readFileSync(PINS_FILE, 'utf8')) as { pins: Pin[] }).pins;
     let worst = 0;
     for (const p of pins) {
-      const o = old.find((x) => x.case === p.case && x.scheme === p.scheme && x.rpm === p.rpm);
+      const o = old.find((x) => x.case === p.case && JSON.stringify(x.set ?? []) === JSON.stringify(p.set ?? []) && x.scheme === p.scheme && x.rpm === p.rpm);
       if (!o) continue;
       for (const k of ['volumetricEfficiency', 'trappedMass', 'ivcPressure'] as const) worst = Math.max(worst, Math.abs(p[k] / o[k] - 1));
     }

@@ -6,7 +6,8 @@
  * Quarter-wave runner (closed at the valve, open at the upstream end):
  *   f₁ = a / (4 (L + δ))                       Kinsler et al., Fundamentals of Acoustics
  *   δ = 0.6133 r unflanged open end            Levine & Schwinger, Phys. Rev. 73 (1948)
- *   δ ≈ 0.82 r flanged open end                Norris & Sheng, J. Sound Vib. 135 (1989) (from memory)
+ *   δ ≈ 0.8216 r flanged open end              Norris & Sheng, J. Sound Vib. 135 (1989) (from memory)
+ * (the same table the simulation extends its open ends by: core/network/end-correction.ts)
  *
  * Tuned speeds, the convention used here: the wave order k is the number of
  * quarter-wave periods in one four-stroke cycle (720°), k = f₁·120/N, so the
@@ -33,11 +34,13 @@
  */
 import type { EngineModel } from '../core/model.js';
 import { soundSpeed } from '../core/gas.js';
+import { endCorrection as coreEndCorrection } from '../core/network/end-correction.js';
 
 export type OpenEndKind = 'unflanged' | 'flanged';
 
-/** open-end correction coefficients δ/r */
-export const END_CORRECTION = { unflanged: 0.6133, flanged: 0.82 } as const;
+/** open-end correction coefficients δ/r (the core's own, so estimates and simulation agree) */
+export { END_CORRECTION } from '../core/network/end-correction.js';
+import { END_CORRECTION } from '../core/network/end-correction.js';
 
 /** open-end correction δ [m] of a pipe of radius r [m] */
 export function endCorrection(radius: number, kind: OpenEndKind = 'unflanged'): number {
@@ -146,6 +149,25 @@ export function outputEstimate(
   return { torque, power: (torque * 2 * Math.PI * rpm) / 60 };
 }
 
+/**
+ * What the plenum's feed offers the air that rings through it: the effective
+ * neck length over area L′/S [1/m]. An orifice of radius r: L′ = 1.7·r (two
+ * flanged sides, Kinsler et al.); a snorkel: ∫dx/A over its sections plus the
+ * unflanged end corrections of its two open ends over their areas (the same
+ * corrections the simulation extends the snorkel by, core/network/end-correction.ts).
+ */
+export function feedInertance(inlet: Extract<EngineModel['inlet'], { kind: 'plenum' }>): number {
+  if (inlet.snorkel) {
+    const secs = inlet.snorkel.sections;
+    const d0 = secs[0]!.diameterStart;
+    const d1 = secs[secs.length - 1]!.diameterEnd;
+    const end = (d: number) => coreEndCorrection('unflanged', d) / ((Math.PI / 4) * d * d);
+    return runnerLengthOverArea(secs) + end(d0) + end(d1);
+  }
+  const r = (inlet.feedDiameter ?? 0) / 2;
+  return (1.7 * r) / (Math.PI * r * r);
+}
+
 /** ∫dx/A over the runner sections [1/m] (exact for cones: L/(π r₁ r₂)); the neck inertance per unit density */
 export function runnerLengthOverArea(sections: readonly { length: number; diameterStart: number; diameterEnd: number }[]): number {
   let s = 0;
@@ -187,10 +209,7 @@ export function caseEstimates(
   const lOverA = runnerLengthOverArea(sections);
   const helmholtz = helmholtzIntake(a, 1 / lOverA, 1, swept, model.engine.compressionRatio);
   let plenumFrequency: number | null = null;
-  if (model.inlet.kind === 'plenum') {
-    const r = model.inlet.feedDiameter / 2;
-    plenumFrequency = helmholtzResonator(a, Math.PI * r * r, model.inlet.volume, 1.7 * r);
-  }
+  if (model.inlet.kind === 'plenum') plenumFrequency = (a / (2 * Math.PI)) * Math.sqrt(1 / (model.inlet.volume * feedInertance(model.inlet)));
   return {
     soundSpeed: a,
     runnerLength: length,

@@ -22,7 +22,8 @@ export type ResultProblem = 'negative-ve' | 'huge-ve' | 'mostly-residual' | 'neg
 
 export interface PointFigures {
   volumetricEfficiency: number;
-  residualFraction: number;
+  /** when known */
+  residualFraction?: number;
   /** the smallest cylinder mass over the cycle [kg], when known */
   minCylinderMass?: number;
 }
@@ -33,7 +34,7 @@ export function resultProblems(p: PointFigures): ResultProblem[] {
   const ve = p.volumetricEfficiency;
   if (ve < RESULT_LIMITS.minVolumetricEfficiency) out.push('negative-ve');
   else if (ve > RESULT_LIMITS.maxVolumetricEfficiency) out.push('huge-ve');
-  if (p.residualFraction > RESULT_LIMITS.maxResidualFraction) out.push('mostly-residual');
+  if (p.residualFraction !== undefined && p.residualFraction > RESULT_LIMITS.maxResidualFraction) out.push('mostly-residual');
   if (p.minCylinderMass !== undefined && p.minCylinderMass < 0) out.push('negative-mass');
   return out;
 }

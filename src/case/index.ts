@@ -18,7 +18,7 @@ export {
   type CaseIssue,
   type Validation,
 } from './schema.js';
-export { toEngineModel, toPipeModel, cardToTheta, thetaToCard, wrap720, widenToZeroLift, profileCrossings } from './to-model.js';
+export { toEngineModel, toPipeModel, cardToTheta, thetaToCard, wrap720, widenToZeroLift, profileCrossings, effectiveCard } from './to-model.js';
 export {
   loadCase,
   loadPipeCase,

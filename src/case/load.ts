@@ -196,7 +196,7 @@ export function applySets(data: Record<string, unknown>, sets: readonly string[]
       throw new CaseError(path, `unknown key${full}`, 'unknown-key');
     }
     const value = parseSetValue(s.slice(eq + 1).trim(), path);
-    if (r.node.kind === 'object' && (value === null || typeof value !== 'object'))
+    if (r.node.kind === 'object' && value !== undefined && (value === null || typeof value !== 'object'))
       throw new CaseError(path, `is a group of keys (${r.node.keys.join(', ')}); set one of them, e.g. ${path}.${r.node.keys[0] ?? 'x'}=...`, 'option');
     let cur: Record<string, unknown> | unknown[] = data;
     for (let i = 0; i < segs.length; i++) {

@@ -10,7 +10,7 @@
  * a list of issues, each with a dotted field path and a message.
  */
 import { z } from 'zod';
-import type { SchemeName } from '../core/model.js';
+import type { ResonatorModel, SchemeName } from '../core/model.js';
 import { DEFAULT_SCHEME as CORE_DEFAULT_SCHEME } from '../core/index.js';
 import { parseQuantity, MODEL_UNIT, type QuantityKind } from './units.js';
 import { didYouMean } from './suggest.js';
@@ -180,14 +180,24 @@ const valveKeys = {
   cdTable: table('L/D', 'Cd', 1).optional(),
   /** lift at which the card events were measured (information; see to-model.ts) */
   checkingLift: q('length', { positive: true }).optional(),
+  /**
+   * cam timing moved by this many crank degrees, both events of the valve
+   * alike: positive = later (retard), negative = earlier (advance); see
+   * to-model.ts effectiveCard
+   */
+  shift: q('angle').optional(),
+  /**
+   * open duration in crank degrees between the card events (opens + 180 +
+   * closes), both ends moved alike about the same centre line
+   */
+  duration: q('angle', { positive: true }).optional(),
 };
 
+/** largest cam shift a case may ask for [deg crank] */
+export const SHIFT_LIMIT = 180;
+
 const intakeSchema = z.strictObject(valveKeys);
-const exhaustSchema = z.strictObject({
-  ...valveKeys,
-  backPressure: pressure(),
-  gasTemperature: temperature(),
-});
+
 
 const sectionSchema = z.strictObject({
   length: length(),
@@ -205,18 +215,33 @@ const entryLoss = z.unknown().transform((v, ctx): number => {
   return z.NEVER;
 });
 
-const runnerSchema = z
-  .strictObject({
-    length: length().optional(),
-    diameter: length().optional(),
-    sections: z.array(sectionSchema).optional(),
-    wallTemperature: temperature().optional(),
-    /** Fanning friction factor */
-    friction: q('dimensionless', { nonNegative: true }).default(0.005),
-    heatTransfer: bool().default(true),
-    entryLoss: entryLoss.default(ENTRY_LOSS.bellmouth!),
-  })
-  .transform((r, ctx) => {
+/** The keys every pipe has: `length` + `diameter`, or a list of conical `sections`, plus its wall. */
+const pipeKeys = {
+  length: length().optional(),
+  diameter: length().optional(),
+  sections: z.array(sectionSchema).optional(),
+  wallTemperature: temperature().optional(),
+  /** Fanning friction factor */
+  friction: q('dimensionless', { nonNegative: true }).default(0.005),
+  heatTransfer: bool().default(true),
+};
+
+interface PipeKeysOut {
+  length?: number | undefined;
+  diameter?: number | undefined;
+  sections?: { length: number; diameterStart: number; diameterEnd: number }[] | undefined;
+}
+
+interface IssueSink {
+  addIssue(issue: { code: 'custom'; message: string; path?: (string | number)[] }): void;
+}
+
+/**
+ * The pipe keys to a list of sections, checking that a plain number was not
+ * meant as millimetres. `what` names the pipe in messages ("an intake runner").
+ */
+function pipeShape(what: string) {
+  return <T extends PipeKeysOut>(r: T, ctx: IssueSink): Omit<T, 'length' | 'diameter' | 'sections'> & { sections: { length: number; diameterStart: number; diameterEnd: number }[] } => {
     const plain = r.length !== undefined || r.diameter !== undefined;
     if (r.sections !== undefined) {
       if (plain) {
@@ -227,25 +252,23 @@ const runnerSchema = z
         ctx.addIssue({ code: 'custom', message: 'needs at least one section', path: ['sections'] });
         return z.NEVER;
       }
-    } else {
-      if (r.length === undefined || r.diameter === undefined) {
-        ctx.addIssue({
-          code: 'custom',
-          message: 'required (a runner needs length and diameter, or a list of sections)',
-          path: [r.length === undefined ? 'length' : 'diameter'],
-        });
-        return z.NEVER;
-      }
+    } else if (r.length === undefined || r.diameter === undefined) {
+      ctx.addIssue({
+        code: 'custom',
+        message: `required (${what} needs length and diameter, or a list of sections)`,
+        path: [r.length === undefined ? 'length' : 'diameter'],
+      });
+      return z.NEVER;
     }
     // plausibility: a bare number is in metres, so "300" meant as millimetres is 300 m
-    const big = (path: (string | number)[], v: number, limit: number, what: string): boolean => {
+    const big = (path: (string | number)[], v: number, limit: number, words: string): boolean => {
       if (v <= limit) return false;
-      ctx.addIssue({ code: 'custom', path, message: `${what} ${limit} m is not an intake runner, got ${Number(v.toPrecision(6))} m (a plain number is in metres: write "${Number(v.toPrecision(6))} mm" if you meant millimetres)` });
+      ctx.addIssue({ code: 'custom', path, message: `${words} ${limit} m is not ${what}, got ${Number(v.toPrecision(6))} m (a plain number is in metres: write "${Number(v.toPrecision(6))} mm" if you meant millimetres)` });
       return true;
     };
     let bad = false;
     if (r.sections === undefined) {
-      bad = big(['length'], r.length!, RUNNER_LIMITS.length, 'a runner longer than') || bad;
+      bad = big(['length'], r.length!, RUNNER_LIMITS.length, 'longer than') || bad;
       bad = big(['diameter'], r.diameter!, RUNNER_LIMITS.diameter, 'a diameter over') || bad;
     } else {
       r.sections.forEach((x, k) => {
@@ -254,18 +277,66 @@ const runnerSchema = z
         bad = big(['sections', k, 'diameterEnd'], x.diameterEnd, RUNNER_LIMITS.diameter, 'a diameter over') || bad;
       });
       const total = r.sections.reduce((t, x) => t + x.length, 0);
-      if (!bad) bad = big(['sections'], total, RUNNER_LIMITS.length, 'a runner longer than');
+      if (!bad) bad = big(['sections'], total, RUNNER_LIMITS.length, 'longer than');
     }
     if (bad) return z.NEVER;
-    const sections = r.sections ?? [{ length: r.length!, diameterStart: r.diameter!, diameterEnd: r.diameter! }];
-    return {
-      sections,
-      ...(r.wallTemperature !== undefined ? { wallTemperature: r.wallTemperature } : {}),
-      friction: r.friction,
-      heatTransfer: r.heatTransfer,
-      entryLoss: r.entryLoss,
+    const { length: _l, diameter: _d, sections, ...rest } = r;
+    return { ...rest, sections: sections ?? [{ length: r.length!, diameterStart: r.diameter!, diameterEnd: r.diameter! }] };
+  };
+}
+
+/**
+ * A side resonator on the runner, `at` measured from the valve: a closed side
+ * tube (`length`, `diameter`: a quarter-wave resonator) or a Helmholtz
+ * resonator (`neckLength`, `neckDiameter`, `volume`).
+ */
+const resonatorSchema = z
+  .strictObject({
+    at: length(),
+    length: length().optional(),
+    diameter: length().optional(),
+    neckLength: length().optional(),
+    neckDiameter: length().optional(),
+    volume: q('volume', { positive: true }).optional(),
+  })
+  .transform((r, ctx): ResonatorModel => {
+    const tube = r.length !== undefined || r.diameter !== undefined;
+    const helm = r.neckLength !== undefined || r.neckDiameter !== undefined || r.volume !== undefined;
+    const fail = (path: string, message: string) => {
+      ctx.addIssue({ code: 'custom', path: [path], message });
+      return z.NEVER;
     };
+    if (tube && helm)
+      return fail(r.length !== undefined ? 'length' : 'diameter', 'give either length and diameter (a closed side tube) or neckLength, neckDiameter and volume (a Helmholtz resonator), not both');
+    if (helm) {
+      for (const k of ['neckLength', 'neckDiameter', 'volume'] as const)
+        if (r[k] === undefined) return fail(k, 'required (a Helmholtz resonator needs neckLength, neckDiameter and volume)');
+      return { kind: 'helmholtz', at: r.at, neckLength: r.neckLength!, neckDiameter: r.neckDiameter!, volume: r.volume! };
+    }
+    for (const k of ['length', 'diameter'] as const)
+      if (r[k] === undefined) return fail(k, 'required (a side tube needs length and diameter; a Helmholtz resonator neckLength, neckDiameter and volume)');
+    for (const k of ['length', 'diameter'] as const)
+      if (r[k]! > RUNNER_LIMITS[k]) return fail(k, `over ${RUNNER_LIMITS[k]} m is not a side tube, got ${Number(r[k]!.toPrecision(6))} m (a plain number is in metres: write "${Number(r[k]!.toPrecision(6))} mm" if you meant millimetres)`);
+    return { kind: 'tube', at: r.at, length: r.length!, diameter: r.diameter! };
   });
+
+const runnerSchema = z
+  .strictObject({ ...pipeKeys, entryLoss: entryLoss.default(ENTRY_LOSS.bellmouth!), resonator: z.array(resonatorSchema).optional() })
+  .transform(pipeShape('an intake runner'));
+
+const snorkelSchema = z.strictObject({ ...pipeKeys, entryLoss: entryLoss.default(ENTRY_LOSS.bellmouth!) }).transform(pipeShape('a snorkel'));
+
+const exhaustPipeSchema = z.strictObject(pipeKeys).transform(pipeShape('an exhaust pipe'));
+
+const exhaustSchema = z.strictObject({
+  ...valveKeys,
+  backPressure: pressure(),
+  gasTemperature: temperature(),
+  /** cylinder pressure at exhaust valve opening (the blowdown); default with an exhaust pipe */
+  releasePressure: pressure().optional(),
+  /** the exhaust primary from the valve to the back-pressure reservoir */
+  pipe: exhaustPipeSchema.optional(),
+});
 
 const inletSchema = z
   .discriminatedUnion('kind', [
@@ -273,8 +344,11 @@ const inletSchema = z
     z.strictObject({
       kind: z.literal('plenum'),
       volume: q('volume', { positive: true }),
-      feedDiameter: length(),
+      /** the orifice form of the feed (throttle or airbox mouth) */
+      feedDiameter: length().optional(),
       feedCd: q('dimensionless', { positive: true }).default(0.8),
+      /** the airbox mouth as a 1-D pipe from the ambient into the box */
+      snorkel: snorkelSchema.optional(),
     }),
   ])
   .default({ kind: 'ambient' });
@@ -337,9 +411,12 @@ export const caseSchema = z
     for (const side of ['intake', 'exhaust'] as const) {
       const v = c[side];
       if (!(v.diameter < e.bore)) issue([side, 'diameter'], `valve must be smaller than the bore (${mm(e.bore)}), got ${mm(v.diameter)}`);
-      const duration = v.opens + 180 + v.closes;
-      if (!(duration > 0 && duration < 720))
+      const duration = v.duration ?? v.opens + 180 + v.closes;
+      if (v.duration !== undefined && !(v.duration < 720)) issue([side, 'duration'], `must be below 720 deg (a whole cycle), got ${Number(v.duration.toPrecision(6))} deg`);
+      else if (!(duration > 0 && duration < 720))
         issue([side, 'closes'], `duration opens + 180 + closes = ${Number(duration.toPrecision(6))} deg must be between 0 and 720 deg (exclusive)`);
+      if (v.shift !== undefined && !(Math.abs(v.shift) <= SHIFT_LIMIT))
+        issue([side, 'shift'], `must be between -${SHIFT_LIMIT} and ${SHIFT_LIMIT} deg, got ${Number(v.shift.toPrecision(6))} deg`);
       if (v.checkingLift !== undefined && !(v.checkingLift < v.maxLift))
         issue([side, 'checkingLift'], `must be below maxLift (${mm(v.maxLift)}), got ${mm(v.checkingLift)}`);
     }
@@ -363,7 +440,30 @@ export const caseSchema = z
     if (!(n.courant > 0 && n.courant <= 1)) issue(['numerics', 'courant'], `must be in (0, 1], got ${n.courant}`);
     const L = c.runner.sections.reduce((s, x) => s + x.length, 0);
     if (n.meshSize > L / 2) issue(['numerics', 'meshSize'], `must be at most half the runner length (${mm(L / 2)}), got ${mm(n.meshSize)}`);
-    if (c.inlet.kind === 'plenum' && c.inlet.feedCd > 1) issue(['inlet', 'feedCd'], `must be at most 1, got ${c.inlet.feedCd}`);
+    if (c.inlet.kind === 'plenum') {
+      if (c.inlet.feedCd > 1) issue(['inlet', 'feedCd'], `must be at most 1, got ${c.inlet.feedCd}`);
+      if (c.inlet.feedDiameter === undefined && c.inlet.snorkel === undefined)
+        issue(['inlet', 'feedDiameter'], 'required (a plenum is fed through feedDiameter, an orifice, or through a snorkel pipe)');
+      if (c.inlet.feedDiameter !== undefined && c.inlet.snorkel !== undefined)
+        issue(['inlet', 'snorkel'], 'give either feedDiameter (an orifice) or a snorkel (a pipe) as the feed of the plenum, not both');
+    }
+    // every pipe at least two mesh cells long, every resonator inside the runner
+    const twoCells = (path: (string | number)[], sections: readonly { length: number }[]) => {
+      const len = sections.reduce((t, x) => t + x.length, 0);
+      if (len < 2 * n.meshSize) issue(path, `must be at least twice numerics.meshSize (${mm(2 * n.meshSize)}), got ${mm(len)}`);
+    };
+    if (c.inlet.kind === 'plenum' && c.inlet.snorkel) twoCells(['inlet', 'snorkel', 'length'], c.inlet.snorkel.sections);
+    if (c.exhaust.pipe) twoCells(['exhaust', 'pipe', 'length'], c.exhaust.pipe.sections);
+    const res = c.runner.resonator ?? [];
+    res.forEach((r, k) => {
+      if (!(r.at >= n.meshSize && r.at <= L - n.meshSize))
+        issue(['runner', 'resonator', k, 'at'], `must lie on the runner, at least numerics.meshSize (${mm(n.meshSize)}) from either end: between ${mm(n.meshSize)} and ${mm(L - n.meshSize)} from the valve, got ${mm(r.at)}`);
+      const own = r.kind === 'tube' ? (['length', r.length] as const) : (['neckLength', r.neckLength] as const);
+      if (own[1] < n.meshSize) issue(['runner', 'resonator', k, own[0]], `must be at least numerics.meshSize (${mm(n.meshSize)}), got ${mm(own[1])}: use a finer mesh for a shorter one`);
+      for (let j = 0; j < k; j++)
+        if (Math.abs(res[j]!.at - r.at) < n.meshSize)
+          issue(['runner', 'resonator', k, 'at'], `is within numerics.meshSize (${mm(n.meshSize)}) of resonator ${j} at ${mm(res[j]!.at)}: put them apart or join them as one`);
+    });
     if (c.sweep && !(c.sweep.to > c.sweep.from)) issue(['sweep', 'to'], `must be above sweep.from (${c.sweep.from} rpm), got ${c.sweep.to} rpm`);
     if (c.band && !(c.band.to > c.band.from)) issue(['band', 'to'], `must be above band.from (${c.band.from} rpm), got ${c.band.to} rpm`);
     const be = c.estimate?.brakeEfficiency;

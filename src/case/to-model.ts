@@ -13,7 +13,7 @@
  * angles are where the curve passes the checking lift, and the zero-lift
  * ends lie outside them (see `widenToZeroLift`).
  */
-import type { EngineModel, TablePoint, ValveModel } from '../core/model.js';
+import type { EngineModel, PipeModel, RunnerSection, TablePoint, ValveModel } from '../core/model.js';
 import type { PipeExperimentModel } from '../core/pipe-experiment-model.js';
 import { DEFAULT_CD_TABLE, valveLift } from '../core/valve.js';
 import { CaseError } from './errors.js';
@@ -98,6 +98,34 @@ export function widenToZeroLift(
   return { open, close: wrap720(open + D) };
 }
 
+/**
+ * The card events after the valve's `duration` and `shift` (both optional),
+ * still in card terms (opens ° before its dead centre, closes ° after its
+ * dead centre; intake BTDC/ABDC, exhaust BBDC/ATDC):
+ *  - duration D: both events move apart (or together) by the same angle about
+ *    the same centre line, so that opens + 180 + closes = D:
+ *      w = (D − (opens + 180 + closes))/2;  opens + w, closes + w;
+ *  - shift S: both events move S crank degrees later (S > 0, retard) or
+ *    earlier (S < 0, advance):  opens − S, closes + S.
+ *    Intake opens 30 BTDC, closes 60 ABDC with shift −10 (10° advance):
+ *    opens 40 BTDC, closes 50 ABDC.
+ * Duration is applied first; then the shift moves the result.
+ */
+export function effectiveCard(v: Pick<Case['intake'], 'opens' | 'closes' | 'shift' | 'duration'>): { opens: number; closes: number } {
+  let opens = v.opens;
+  let closes = v.closes;
+  if (v.duration !== undefined) {
+    const w = (v.duration - (opens + 180 + closes)) / 2;
+    opens += w;
+    closes += w;
+  }
+  if (v.shift !== undefined) {
+    opens -= v.shift;
+    closes += v.shift;
+  }
+  return { opens, closes };
+}
+
 function valveModel(
   v: Case['intake'],
   openTheta: number,
@@ -122,10 +150,34 @@ function valveModel(
   };
 }
 
+function copySection(s: RunnerSection): RunnerSection {
+  return { length: s.length, diameterStart: s.diameterStart, diameterEnd: s.diameterEnd };
+}
+
+/** a pipe's sections and wall; the wall at `defaultWall` [K] unless the case gives one */
+function pipeModel(
+  p: { sections: RunnerSection[]; wallTemperature?: number | undefined; friction: number; heatTransfer: boolean },
+  defaultWall: number,
+): PipeModel {
+  return { sections: p.sections.map(copySection), wallTemperature: p.wallTemperature ?? defaultWall, friction: p.friction, heatTransfer: p.heatTransfer };
+}
+
+function plenumModel(inlet: Extract<Case['inlet'], { kind: 'plenum' }>, ambientTemperature: number): Extract<EngineModel['inlet'], { kind: 'plenum' }> {
+  return {
+    kind: 'plenum',
+    volume: inlet.volume,
+    ...(inlet.feedDiameter !== undefined ? { feedDiameter: inlet.feedDiameter } : {}),
+    feedCd: inlet.feedCd,
+    ...(inlet.snorkel ? { snorkel: { ...pipeModel(inlet.snorkel, ambientTemperature), entryLoss: inlet.snorkel.entryLoss } } : {}),
+  };
+}
+
 /** Build the core's engine model from a validated case. Throws CaseError for inconsistent events. */
 export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
-  const intake = valveModel(c.intake, cardToTheta.intakeOpens(c.intake.opens), cardToTheta.intakeCloses(c.intake.closes), 'intake');
-  const exhaustValve = valveModel(c.exhaust, cardToTheta.exhaustOpens(c.exhaust.opens), cardToTheta.exhaustCloses(c.exhaust.closes), 'exhaust');
+  const ic = effectiveCard(c.intake);
+  const ec = effectiveCard(c.exhaust);
+  const intake = valveModel(c.intake, cardToTheta.intakeOpens(ic.opens), cardToTheta.intakeCloses(ic.closes), 'intake');
+  const exhaustValve = valveModel(c.exhaust, cardToTheta.exhaustOpens(ec.opens), cardToTheta.exhaustCloses(ec.closes), 'exhaust');
   return {
     name: c.name ?? fallbackName,
     engine: {
@@ -137,18 +189,23 @@ export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
     },
     ambient: { pressure: c.ambient.pressure, temperature: c.ambient.temperature },
     intake,
-    exhaust: { ...exhaustValve, backPressure: c.exhaust.backPressure, gasTemperature: c.exhaust.gasTemperature },
+    exhaust: {
+      ...exhaustValve,
+      backPressure: c.exhaust.backPressure,
+      gasTemperature: c.exhaust.gasTemperature,
+      ...(c.exhaust.releasePressure !== undefined ? { releasePressure: c.exhaust.releasePressure } : {}),
+      // the exhaust pipe's wall: at the gas temperature unless the case says otherwise
+      ...(c.exhaust.pipe ? { pipe: pipeModel(c.exhaust.pipe, c.exhaust.gasTemperature) } : {}),
+    },
     runner: {
-      sections: c.runner.sections.map((s) => ({ length: s.length, diameterStart: s.diameterStart, diameterEnd: s.diameterEnd })),
+      sections: c.runner.sections.map(copySection),
       wallTemperature: c.runner.wallTemperature ?? c.ambient.temperature,
       friction: c.runner.friction,
       heatTransfer: c.runner.heatTransfer,
       entryLoss: c.runner.entryLoss,
+      ...(c.runner.resonator && c.runner.resonator.length > 0 ? { resonators: c.runner.resonator.map((r) => ({ ...r })) } : {}),
     },
-    inlet:
-      c.inlet.kind === 'plenum'
-        ? { kind: 'plenum', volume: c.inlet.volume, feedDiameter: c.inlet.feedDiameter, feedCd: c.inlet.feedCd }
-        : { kind: 'ambient' },
+    inlet: c.inlet.kind === 'plenum' ? plenumModel(c.inlet, c.ambient.temperature) : { kind: 'ambient' },
     rpm: c.rpm,
     numerics: { ...c.numerics },
   };

@@ -19,6 +19,8 @@ export interface CliIo {
   cwd: string;
   /** the TERM environment variable ('dumb': no full-screen view) */
   term?: string;
+  /** environment variables a command may read (tune --shard auto); main.ts passes process.env */
+  env?: Readonly<Record<string, string | undefined>>;
 }
 
 /** An in-memory CliIo for tests and embedding. */
@@ -32,6 +34,7 @@ export function memoryIo(overrides: Partial<Omit<CliIo, 'stdout' | 'stderr'>> = 
     stdinIsTTY: false,
     stderrIsTTY: false,
     cwd: process.cwd(),
+    env: {},
     ...overrides,
     out: () => out,
     err: () => err,

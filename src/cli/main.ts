@@ -176,6 +176,7 @@ export async function main(argv: readonly string[] = process.argv.slice(2)): Pro
     stderrIsTTY: process.stderr.isTTY === true,
     cwd: process.cwd(),
     ...(process.env.TERM !== undefined ? { term: process.env.TERM } : {}),
+    env: process.env,
   };
   process.exitCode = await runCli(argv, io);
 }

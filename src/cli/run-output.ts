@@ -5,11 +5,15 @@
 import { printable } from '../case/printable.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import { resultProblems, resultWarnings } from '../analysis/plausibility.js';
-import type { PointResult } from '../core/model.js';
+import type { EngineModel, PointResult } from '../core/model.js';
+import { soundSpeed } from '../core/gas.js';
+import { feedInertance } from '../analysis/estimates.js';
+import { networkLine } from '../analysis/network-line.js';
+import { overlapPressures, plenumRinging } from '../analysis/parts.js';
 import type { PulseTiming } from '../analysis/pulse.js';
 import type { LoadedCase } from '../case/load.js';
 import { thetaToCard } from '../case/to-model.js';
-import { card, deg, fix, gps, kPa, mg, mm, pct, row, wrap } from './format.js';
+import { card, deg, fix, gps, hz, kPa, mg, mm, pct, row, wrap } from './format.js';
 
 /** mass imbalance above which a warning is printed [-] */
 /** the warning threshold of the mass balance (analysis/mass-balance.ts) */
@@ -39,12 +43,16 @@ export interface RunJson {
     cylinderPressure: number[];
     cylinderMass: number[];
     lift: number[];
+    /** with a plenum or airbox */
+    plenumPressure?: number[];
+    /** with an exhaust pipe: pressure at its valve end */
+    exhaustPortPressure?: number[];
   };
   /** the warnings printed on stderr, without the "warning: " prefix */
   warnings: string[];
 }
 
-export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number, warnings: readonly string[] = []): RunJson {
+export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number, model: EngineModel, warnings: readonly string[] = []): RunJson {
   const t = r.trace;
   return {
     rpm: r.rpm,
@@ -70,6 +78,8 @@ export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number,
       cylinderPressure: Array.from(t.cylinderPressure),
       cylinderMass: Array.from(t.cylinderMass),
       lift: Array.from(t.lift),
+      ...(model.inlet.kind === 'plenum' ? { plenumPressure: Array.from(t.plenumPressure) } : {}),
+      ...(model.exhaust.pipe ? { exhaustPortPressure: Array.from(t.exhaustPortPressure) } : {}),
     },
     warnings: warnings.map((w) => w.replace(/^warning: /, '')),
   };
@@ -88,11 +98,15 @@ export const TRACE_COLUMNS = [
   ['plenum_pressure_Pa', 'plenumPressure'],
 ] as const;
 
-export function traceCsv(r: PointResult): string {
+/** columns added when the case has the part */
+const EXHAUST_PORT_COLUMN = ['exhaust_port_pressure_Pa', 'exhaustPortPressure'] as const;
+
+export function traceCsv(r: PointResult, model: EngineModel): string {
   const t = r.trace;
-  const lines = [TRACE_COLUMNS.map(([h]) => h).join(',')];
+  const cols = [...TRACE_COLUMNS, ...(model.exhaust.pipe ? [EXHAUST_PORT_COLUMN] : [])];
+  const lines = [cols.map(([h]) => h).join(',')];
   const n = t.crank.length;
-  for (let i = 0; i < n; i++) lines.push(TRACE_COLUMNS.map(([, k]) => String(t[k][i] ?? '')).join(','));
+  for (let i = 0; i < n; i++) lines.push(cols.map(([, k]) => String(t[k][i] ?? '')).join(','));
   return lines.join('\n') + '\n';
 }
 
@@ -114,6 +128,23 @@ export function runWarnings(r: PointResult, maxCycles: number): string[] {
   return w;
 }
 
+/** What the airbox and the exhaust pipe did, when the case has them. */
+export function partLines(m: EngineModel, r: PointResult): string {
+  let s = '';
+  const box = plenumRinging(r, m);
+  if (box && m.inlet.kind === 'plenum') {
+    const est = (soundSpeed(m.ambient.temperature) / (2 * Math.PI)) * Math.sqrt(1 / (m.inlet.volume * feedInertance(m.inlet)));
+    s += row(m.inlet.snorkel ? 'airbox pressure' : 'plenum pressure', `${kPa(box.min)} to ${kPa(box.max)} over the cycle`);
+    s += row(m.inlet.snorkel ? 'airbox swings most at' : 'plenum swings most at', `${hz(box.frequency, 0)} = ${box.order} × N/120, ±${kPa(box.amplitude)} (Helmholtz est. ${hz(est, 0)})`);
+  }
+  const ov = overlapPressures(r, m);
+  if (ov) {
+    const words = ov.difference < 0 ? 'below the intake side: it pulls gas through' : 'above the intake side: it pushes burned gas back';
+    s += row('exhaust port at overlap', `${kPa(ov.port)}, ${kPa(Math.abs(ov.difference))} ${words}`);
+  }
+  return s;
+}
+
 /** The events block: θ and card form. */
 export function eventLines(events: PointResult['events']): string {
   return (
@@ -128,6 +159,7 @@ export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTimin
   const m = loaded.model;
   let s = '';
   s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
+  s += `  ${wrap(networkLine(m), 76, '    ')}`;
   s += r.converged
     ? `  periodic after ${r.cycles} cycles (tolerance ${m.numerics.tolerance})\n\n`
     : `  NOT converged after ${r.cycles} cycles: figures are from the last cycle run\n\n`;
@@ -142,6 +174,7 @@ export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTimin
   s += row('peak reverse flow', gps(r.peakReverseFlow));
   const warn = !massBalanceOk(r.massImbalance) ? '  (above 0.5 %: see warning)' : '';
   s += row('mass balance', `inlet ${mg(r.inletMass)} vs valve ${mg(r.deliveredMass)}: ${pct(r.massImbalance, 2)}${warn}`);
+  s += partLines(m, r);
   s += '\npulse timing\n';
   // a: the simulated mean sound speed in the runner (check uses the ambient's)
   s += row('wave round trip 2L/a', `${deg(pulse.roundTripDegrees, 1)} of crank (L ${mm(pulse.runnerLength, 0)}, a ${fix(pulse.soundSpeed, 0)} m/s in the runner)`);
@@ -158,7 +191,7 @@ export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTimin
   s += wrap(`  opening: ${pulse.openingNote}`);
   s += '\nevents (θ: 0 = TDC at the start of the intake stroke; card form beside)\n';
   s += eventLines(r.events);
-  s += `\n  ${r.stats.nodes} runner points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
+  s += `\n  ${r.stats.nodes} ${r.pipes.length > 1 ? 'pipe' : 'runner'} points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
   s += '  results are estimates: verify on an engine.\n';
   return s;
 }

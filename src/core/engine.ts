@@ -1,66 +1,60 @@
 /**
- * The crank-angle stepper: one operating point of the single-cylinder intake
- * tract, cycle after cycle until periodic.
+ * The crank-angle stepper: one operating point of the single-cylinder engine,
+ * cycle after cycle until periodic.
  *
- * Network (flows positive in the direction named):
- *   ambient ─(feed nozzle)→ plenum ─(open end)→ runner ─(intake valve)→ cylinder ←(exhaust valve)─ exhaust reservoir
- * (without a plenum the runner's upstream end opens to the ambient).
+ * The engine is an assembly of parts (network/assemble.ts): pipes (the
+ * runner, and when the case has them a snorkel, an exhaust pipe, side
+ * resonators), volumes (ambient, plenum, cylinder, exhaust reservoir,
+ * resonator cavities) and connectors (open ends, valves, orifices, junctions).
+ * This file builds nothing of its own: it keeps the crank, the cycle, the
+ * samples and the convergence, and lets network/network.ts advance the
+ * assembly one CFL step at a time.
  *
- * Time: θ advances at 6·N deg/s. Each sub-step is the runner's CFL step
- * dt = C·dx/max(|u| + a); the step is shortened only to land on the end of a
- * cycle. Per step: (1) each runner end gets the arriving wave, (2) the
- * boundaries are solved against the reservoirs' present states (valve areas
- * at mid-step), (3) the cylinder and plenum are advanced with exactly the mass
- * and enthalpy flows the boundaries report, (4) the runner is advanced.
- * Samples are taken at every whole crank degree (linear interpolation within
- * the step for scalars).
+ * Time: θ advances at 6·N deg/s. Each step is the smallest CFL step over all
+ * pipes, dt = C·dx/max(|u| + a); it is shortened only to land on the end of a
+ * cycle. Samples are taken at every whole crank degree (linear interpolation
+ * within the step for scalars).
  *
- * Cycle: starts at exhaust-stroke BDC (θ = 540) with the cylinder set to the
- * exhaust back pressure and gas temperature, all burned gas; runs through
- * exhaust, overlap, intake, compression and expansion back to θ = 540. The
- * runner and plenum states carry over. Converged when the relative change of
- * the delivered mass between cycles is below the tolerance.
+ * Cycle: with a constant exhaust reservoir it starts at exhaust-stroke BDC
+ * (θ = 540) with the cylinder at the exhaust back pressure and gas
+ * temperature, all burned gas; with an exhaust pipe (or a release pressure)
+ * it starts at exhaust valve opening with the cylinder at the release
+ * pressure, so the blowdown runs down the pipe. Either way it runs through
+ * exhaust, overlap, intake, compression and expansion back to its start.
+ * Pipe and chamber states carry over between cycles. Converged when the
+ * relative change of the delivered mass between cycles is below the tolerance.
  */
-import { CP, R_AIR, GAMMA } from './gas.js';
-import { reservoirFlow } from './flow.js';
-import { Cylinder } from './cylinder.js';
-import { Plenum } from './plenum.js';
-import { OpenEnd } from './boundary/open.js';
-import { RestrictedEnd } from './boundary/restricted.js';
-import { newEndState, type Incoming, type Reservoir } from './boundary/types.js';
-import { buildMesh, totalLength } from './pipe/mesh.js';
-import { createPipeScheme } from './pipe/factory.js';
-import { effectiveArea, valveLift } from './valve.js';
+import { GAMMA, R_AIR } from './gas.js';
+import { SimulationError } from './errors.js';
+import { totalLength } from './pipe/mesh.js';
+import { valveLift } from './valve.js';
 import { sweptVolume } from './kinematics.js';
-import type { EngineModel, PointResult, RunnerSection, ValveEvents } from './model.js';
+import { Network } from './network/network.js';
+import { assembleEngine, runnerEndCorrection, type EngineAssembly } from './network/assemble.js';
+import { extendedSections, type Pipe } from './network/pipe.js';
+import { Chamber, CylinderVolume } from './network/volumes.js';
+import { OpenConnector } from './network/connectors/open.js';
+import { RestrictedConnector } from './network/connectors/restricted.js';
+import type { EngineModel, PipeMap, PipeRole, PointResult, RunnerSection, ValveEvents } from './model.js';
+import type { StepContext } from './network/types.js';
+
+export { SimulationError };
 
 /** State to start a point from, e.g. the converged state of a neighbouring speed. Plain data. */
 export interface WarmStart {
-  pressure: number[];
-  velocity: number[];
-  temperature: number[];
-  plenum?: { pressure: number; temperature: number };
+  /** per pipe of the assembly, in its order: per-point pressure [Pa], velocity [m/s], temperature [K] */
+  pipes: { pressure: number[]; velocity: number[]; temperature: number[] }[];
+  /** per chamber of the assembly, in its order */
+  chambers: { pressure: number; temperature: number }[];
 }
 
 export interface SimulateOptions {
   warmStart?: WarmStart;
   /** called after each cycle with its number and delivered mass [kg] */
   onCycle?: (cycle: number, deliveredMass: number) => void;
-  /** points along the runner in the space–time map (default 40) */
+  /** points along each pipe in the space–time maps (default 40) */
   mapPoints?: number;
 }
-
-export class SimulationError extends Error {
-  constructor(
-    readonly code: 'diverged' | 'invalid',
-    message: string,
-  ) {
-    super(message);
-    this.name = 'SimulationError';
-  }
-}
-
-const CYCLE_START = 540;
 
 function mod720(x: number): number {
   return ((x % 720) + 720) % 720;
@@ -74,45 +68,102 @@ function atAngle(arr: Float64Array, theta: number): number {
   return arr[i % 720]! * (1 - f) + arr[(i + 1) % 720]! * f;
 }
 
+/** Sampling positions of a map along a chain of pipes (one pipe, or the pieces of the runner). */
+class MapProbe {
+  readonly x: Float64Array;
+  readonly pressure: Float64Array;
+  private readonly pipeOf: Int32Array;
+  private readonly pos: Float64Array;
+
+  constructor(
+    readonly chain: Pipe[],
+    points: number,
+  ) {
+    const nodes = chain.reduce((s, p) => s + p.scheme.mesh.n, 0);
+    const m = Math.max(2, Math.min(nodes, points));
+    const length = chain.reduce((s, p) => s + p.length, 0);
+    this.x = new Float64Array(m);
+    this.pos = new Float64Array(m);
+    this.pipeOf = new Int32Array(m);
+    this.pressure = new Float64Array(720 * m);
+    for (let j = 0; j < m; j++) {
+      const x = (j * length) / (m - 1);
+      this.x[j] = x;
+      let start = 0;
+      let k = 0;
+      while (k < chain.length - 1 && x > start + chain[k]!.length) start += chain[k++]!.length;
+      const p = chain[k]!;
+      this.pipeOf[j] = k;
+      this.pos[j] = Math.min(p.scheme.mesh.n - 1, p.meshX(x - start) / p.scheme.mesh.dx);
+    }
+  }
+
+  /** record row j (θ) from the pipes' sampled pressures */
+  record(j: number, sampled: readonly Float64Array[]): void {
+    const m = this.x.length;
+    for (let k = 0; k < m; k++) {
+      const sp = sampled[this.pipeOf[k]!]!;
+      const pos = this.pos[k]!;
+      const i0 = Math.min(sp.length - 2, Math.floor(pos));
+      const w = pos - i0;
+      this.pressure[j * m + k] = sp[i0]! * (1 - w) + sp[i0 + 1]! * w;
+    }
+  }
+}
+
 export function simulatePoint(model: EngineModel, options: SimulateOptions = {}): { result: PointResult; warmStart: WarmStart } {
-  const { engine, ambient, intake, exhaust, runner, numerics, rpm } = model;
+  const { ambient, intake, exhaust, runner, numerics, rpm } = model;
   if (!(rpm > 0)) throw new SimulationError('invalid', `rpm must be positive (got ${rpm})`);
   if (!(numerics.courant > 0 && numerics.courant <= 1)) {
     // beyond 1 the feet of the characteristics leave the neighbouring cell (CFL condition)
     throw new SimulationError('invalid', `numerics.courant must be in (0, 1], got ${numerics.courant} (scheme ${numerics.scheme}, ${rpm} rpm)`);
   }
-  const delta = openEndCorrection(model);
-  const mesh = buildMesh(withEndCorrection(runner.sections, delta), numerics.meshSize);
-  const scheme = createPipeScheme(numerics.scheme, mesh, {
-    friction: runner.friction,
-    heatTransfer: runner.heatTransfer,
-    wallTemperature: runner.wallTemperature,
-  });
-  const n = mesh.n;
-  const amb: Reservoir = { pressure: ambient.pressure, temperature: ambient.temperature };
-  const exh: Reservoir = { pressure: exhaust.backPressure, temperature: exhaust.gasTemperature };
-  const plenum =
-    model.inlet.kind === 'plenum'
-      ? new Plenum(model.inlet.volume, model.inlet.feedCd * (Math.PI / 4) * model.inlet.feedDiameter ** 2, amb)
-      : undefined;
-  const inletEnd = new OpenEnd(plenum ?? amb, runner.entryLoss);
-  const cyl = new Cylinder(engine, engine.wallTemperature);
-  const valveEnd = new RestrictedEnd(cyl);
+  const asm = assembleEngine(model);
+  const net = new Network(asm.network);
+  const cyl = net.volume(asm.cylinder) as CylinderVolume;
+  const cylinder = cyl.cylinder;
+  const valve = net.connector(asm.intakeValve) as RestrictedConnector;
+  const inlet = net.connector(asm.runnerInlet) as OpenConnector;
+  const exhaustValve = net.connector(asm.exhaustValve);
+  const exhaustPort = exhaustValve instanceof RestrictedConnector ? exhaustValve : undefined;
+  const plenum = asm.plenum !== undefined ? net.volume(asm.plenum) : undefined;
+  const chambers = net.volumes.filter((v): v is Chamber => v instanceof Chamber);
 
   const warm = options.warmStart;
-  if (warm && warm.pressure.length === n) {
-    scheme.setState(warm.pressure, warm.velocity, warm.temperature);
-    if (plenum && warm.plenum) plenum.reset(warm.plenum.pressure, warm.plenum.temperature);
-  } else scheme.fill(ambient.pressure, 0, ambient.temperature);
-
-  const mapPoints = Math.max(2, Math.min(n, options.mapPoints ?? 40));
-  const mapX = new Float64Array(mapPoints);
-  const mapIdx = new Float64Array(mapPoints);
-  const physical = mesh.length - delta;
-  for (let j = 0; j < mapPoints; j++) {
-    mapX[j] = (j * physical) / (mapPoints - 1);
-    mapIdx[j] = Math.min(n - 1, (delta + mapX[j]!) / mesh.dx);
+  if (warm && warm.pipes.length === net.pipes.length && warm.pipes.every((w, i) => w.pressure.length === net.pipes[i]!.scheme.mesh.n)) {
+    net.pipes.forEach((p, i) => {
+      const w = warm.pipes[i]!;
+      p.scheme.setState(w.pressure, w.velocity, w.temperature);
+    });
+    if (warm.chambers.length === chambers.length) chambers.forEach((c, i) => c.reset(warm.chambers[i]!.pressure, warm.chambers[i]!.temperature));
   }
+
+  // sampling buffers per pipe, and the maps
+  const sp = net.pipes.map((p) => new Float64Array(p.scheme.mesh.n));
+  const su = net.pipes.map((p) => new Float64Array(p.scheme.mesh.n));
+  const sT = net.pipes.map((p) => new Float64Array(p.scheme.mesh.n));
+  const mapPoints = options.mapPoints ?? 40;
+  const runnerPipes = asm.runner.map((n) => net.pipe(n));
+  const runnerIdx = runnerPipes.map((p) => net.pipes.indexOf(p));
+  interface MapOf {
+    probe: MapProbe;
+    idx: number[];
+    name: string;
+    role: PipeRole;
+    start: string;
+    end: string;
+  }
+  const maps: MapOf[] = [{ probe: new MapProbe(runnerPipes, mapPoints), idx: runnerIdx, name: 'runner', role: 'runner', start: 'upstream end', end: 'valve' }];
+  for (const s of asm.side) {
+    const p = net.pipe(s.name);
+    maps.push({ probe: new MapProbe([p], mapPoints), idx: [net.pipes.indexOf(p)], name: s.name, role: s.role, start: s.start, end: s.end });
+  }
+  if (asm.exhaustPipe !== undefined) {
+    const p = net.pipe(asm.exhaustPipe);
+    maps.push({ probe: new MapProbe([p], mapPoints), idx: [net.pipes.indexOf(p)], name: asm.exhaustPipe, role: 'exhaust', start: 'valve', end: 'outlet' });
+  }
+  const chainSampled = maps.map((m) => m.idx.map((i) => sp[i]!));
+  const runnerNodes = runnerPipes.reduce((s, p) => s + p.scheme.mesh.n, 0);
 
   // per-degree traces, indexed by θ (0..719)
   const tr = {
@@ -124,20 +175,16 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
     exhaustLift: new Float64Array(720),
     inletFlow: new Float64Array(720),
     plenumPressure: new Float64Array(720),
+    exhaustPortPressure: new Float64Array(720),
   };
   const burnedTrace = new Float64Array(720);
-  const mapP = new Float64Array(720 * mapPoints);
-  const sp = new Float64Array(n);
-  const su = new Float64Array(n);
-  const sT = new Float64Array(n);
-
-  const incL: Incoming = { lambda: 0, entropy: 0, area: 0 };
-  const incR: Incoming = { lambda: 0, entropy: 0, area: 0 };
-  const endL = newEndState();
-  const endR = newEndState();
 
   const degPerSec = 6 * rpm;
-  const refMass = (ambient.pressure / (R_AIR * ambient.temperature)) * sweptVolume(engine);
+  const refMass = (ambient.pressure / (R_AIR * ambient.temperature)) * sweptVolume(model.engine);
+  const start = asm.cycleStart;
+  const firstWhole = Math.ceil(start - 1e-9); // θ of the first sample
+  const phi0 = Math.max(0, firstWhole - start);
+  const ctx: StepContext = { dt: 0, thetaMid: 0, theta1: 0, rpm };
   const history: number[] = [];
   let steps = 0;
   let converged = false;
@@ -147,105 +194,84 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
   let soundSum = 0;
   let cycles = 0;
   let valveP = ambient.pressure;
+  let portP = exhaust.backPressure;
 
   for (let cycle = 1; cycle <= numerics.maxCycles; cycle++) {
     cycles = cycle;
-    cyl.reset(CYCLE_START, exhaust.backPressure, exhaust.gasTemperature);
+    cylinder.reset(start, asm.release.pressure, asm.release.temperature);
+    net.startCycle();
     delivered = 0;
     inletMass = 0;
     peakReverse = 0;
     soundSum = 0;
-    let revertBurned = 0; // burned gas pushed back into the runner, waiting to return
     let phi = 0; // degrees into the cycle
-    let nextMark = 0;
-    // sample at φ = 0
+    let mark = 0; // samples taken
     let prevValveP = valveP;
-    let prevCylP = cyl.pressure;
-    let prevCylM = cyl.mass;
-    let prevBurned = cyl.burned;
-    let prevPlenum = plenum ? plenum.pressure : amb.pressure;
+    let prevPortP = portP;
+    let prevCylP = cylinder.pressure;
+    let prevCylM = cylinder.mass;
+    let prevBurned = cylinder.burned;
+    let prevPlenum = plenum ? plenum.pressure : ambient.pressure;
     while (phi < 720) {
-      let dt = scheme.maxStableDt(numerics.courant);
-      if (!(dt > 0) || !Number.isFinite(dt)) throw diverged(model, cycle, phi, 'the CFL time step is not finite');
+      let dt = net.maxStableDt(numerics.courant);
+      if (!(dt > 0) || !Number.isFinite(dt)) throw diverged(model, cycle, start, phi, 'the CFL time step is not finite');
       let dphi = dt * degPerSec;
       if (phi + dphi > 720) {
         dphi = 720 - phi;
         dt = dphi / degPerSec;
       }
-      const theta0 = CYCLE_START + phi;
-      const thetaMid = mod720(theta0 + 0.5 * dphi);
-      const theta1 = theta0 + dphi;
+      const theta0 = start + phi;
+      ctx.dt = dt;
+      ctx.thetaMid = mod720(theta0 + 0.5 * dphi);
+      ctx.theta1 = theta0 + dphi;
+      net.step(ctx);
 
-      scheme.incoming('left', dt, incL);
-      scheme.incoming('right', dt, incR);
-      inletEnd.solve(incL, endL);
-      const liftI = valveLift(intake, thetaMid);
-      valveEnd.area = effectiveArea(intake, liftI);
-      valveEnd.solve(incR, endR);
-
-      // intake valve: flow out of the runner's right end enters the cylinder
-      const mIv = endR.massFlow;
-      const hIv = endR.enthalpyFlow;
-      const liftE = valveLift(exhaust, thetaMid);
-      const aEx = effectiveArea(exhaust, liftE);
-      const mEx = aEx > 0 ? reservoirFlow(aEx, exh.pressure, exh.temperature, cyl.pressure, cyl.temperature) : 0;
-      const hEx = mEx >= 0 ? mEx * CP * exh.temperature : mEx * CP * cyl.temperature;
-      const burnedFrac = cyl.mass > 0 ? cyl.burned / cyl.mass : 1;
-      let burnedIn = mEx >= 0 ? mEx : mEx * burnedFrac;
-      if (mIv < 0) {
-        revertBurned += -mIv * dt * burnedFrac;
-        burnedIn += mIv * burnedFrac;
-        if (-mIv > peakReverse) peakReverse = -mIv;
-      } else if (revertBurned > 0) {
-        const b = Math.min(revertBurned, mIv * dt);
-        revertBurned -= b;
-        burnedIn += b / dt;
-      }
-      cyl.advance(dt, theta1, mIv + mEx, hIv + hEx, burnedIn, rpm);
-      scheme.step(dt, endL, endR);
-      if (plenum) plenum.advance(dt, endL.massFlow, endL.enthalpyFlow);
+      const mIv = valve.flow;
+      if (mIv < 0 && -mIv > peakReverse) peakReverse = -mIv;
       delivered += mIv * dt;
-      inletMass -= endL.massFlow * dt;
-      valveP = endR.pressure;
+      inletMass -= inlet.flow * dt;
+      valveP = valve.endPressure;
+      if (exhaustPort) portP = exhaustPort.endPressure;
       steps++;
 
-      if (!Number.isFinite(cyl.pressure) || !(cyl.pressure > 0) || !Number.isFinite(valveP) || !(valveP > 0)) {
-        throw diverged(model, cycle, phi + dphi, 'non-finite or negative pressure');
+      if (!Number.isFinite(cylinder.pressure) || !(cylinder.pressure > 0) || !Number.isFinite(valveP) || !(valveP > 0)) {
+        throw diverged(model, cycle, start, phi + dphi, 'non-finite or negative pressure');
       }
-      if ((steps & 63) === 0 && !scheme.healthy()) throw diverged(model, cycle, phi + dphi, 'runner state went non-finite or negative');
+      if ((steps & 63) === 0 && !net.healthy()) throw diverged(model, cycle, start, phi + dphi, 'a pipe or volume state went non-finite or negative');
 
       // whole-degree samples inside (φ, φ + dφ]
       const phiEnd = phi + dphi;
-      while (nextMark <= phiEnd && nextMark < 720) {
-        const f = dphi > 0 ? Math.min(1, Math.max(0, (nextMark - phi) / dphi)) : 1;
-        const j = (CYCLE_START + nextMark) % 720;
+      while (mark < 720 && phi0 + mark <= phiEnd) {
+        const at = phi0 + mark;
+        const f = dphi > 0 ? Math.min(1, Math.max(0, (at - phi) / dphi)) : 1;
+        const j = (firstWhole + mark) % 720;
         tr.valvePressure[j] = prevValveP + f * (valveP - prevValveP);
-        tr.cylinderPressure[j] = prevCylP + f * (cyl.pressure - prevCylP);
-        tr.cylinderMass[j] = prevCylM + f * (cyl.mass - prevCylM);
-        burnedTrace[j] = prevBurned + f * (cyl.burned - prevBurned);
-        const pl = plenum ? plenum.pressure : amb.pressure;
+        tr.exhaustPortPressure[j] = prevPortP + f * (portP - prevPortP);
+        tr.cylinderPressure[j] = prevCylP + f * (cylinder.pressure - prevCylP);
+        tr.cylinderMass[j] = prevCylM + f * (cylinder.mass - prevCylM);
+        burnedTrace[j] = prevBurned + f * (cylinder.burned - prevBurned);
+        const pl = plenum ? plenum.pressure : ambient.pressure;
         tr.plenumPressure[j] = prevPlenum + f * (pl - prevPlenum);
         tr.valveFlow[j] = mIv;
-        tr.inletFlow[j] = -endL.massFlow;
+        tr.inletFlow[j] = -inlet.flow;
         tr.lift[j] = valveLift(intake, j);
         tr.exhaustLift[j] = valveLift(exhaust, j);
-        scheme.sample(sp, su, sT);
+        for (let i = 0; i < net.pipes.length; i++) net.pipes[i]!.scheme.sample(sp[i]!, su[i]!, sT[i]!);
         let asum = 0;
-        for (let i = 0; i < n; i++) asum += Math.sqrt(GAMMA * R_AIR * sT[i]!);
-        soundSum += asum / n;
-        for (let k = 0; k < mapPoints; k++) {
-          const pos = mapIdx[k]!;
-          const i0 = Math.min(n - 2, Math.floor(pos));
-          const w = pos - i0;
-          mapP[j * mapPoints + k] = sp[i0]! * (1 - w) + sp[i0 + 1]! * w;
+        for (let r = 0; r < runnerIdx.length; r++) {
+          const T = sT[runnerIdx[r]!]!;
+          for (let i = 0; i < T.length; i++) asum += Math.sqrt(GAMMA * R_AIR * T[i]!);
         }
-        nextMark++;
+        soundSum += asum / runnerNodes;
+        for (let k = 0; k < maps.length; k++) maps[k]!.probe.record(j, chainSampled[k]!);
+        mark++;
       }
       prevValveP = valveP;
-      prevCylP = cyl.pressure;
-      prevCylM = cyl.mass;
-      prevBurned = cyl.burned;
-      prevPlenum = plenum ? plenum.pressure : amb.pressure;
+      prevPortP = portP;
+      prevCylP = cylinder.pressure;
+      prevCylM = cylinder.mass;
+      prevBurned = cylinder.burned;
+      prevPlenum = plenum ? plenum.pressure : ambient.pressure;
       phi = phiEnd;
     }
     history.push(delivered);
@@ -270,13 +296,25 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
   const crank = new Float64Array(720);
   for (let j = 0; j < 720; j++) crank[j] = j;
 
-  scheme.sample(sp, su, sT);
   const warmStart: WarmStart = {
-    pressure: Array.from(sp),
-    velocity: Array.from(su),
-    temperature: Array.from(sT),
-    ...(plenum ? { plenum: { pressure: plenum.pressure, temperature: plenum.temperature } } : {}),
+    pipes: net.pipes.map((p, i) => {
+      p.scheme.sample(sp[i]!, su[i]!, sT[i]!);
+      return { pressure: Array.from(sp[i]!), velocity: Array.from(su[i]!), temperature: Array.from(sT[i]!) };
+    }),
+    chambers: chambers.map((c) => ({ pressure: c.pressure, temperature: c.temperature })),
   };
+
+  const pipes: PipeMap[] = maps.map((m) => ({
+    name: m.name,
+    role: m.role,
+    label: `${m.name}: ${m.start} to ${m.end}`,
+    length: m.probe.chain.reduce((s, p) => s + p.length, 0),
+    start: m.start,
+    end: m.end,
+    x: m.probe.x,
+    pressure: m.probe.pressure,
+  }));
+  const runnerMap = pipes[0]!;
 
   const result: PointResult = {
     rpm,
@@ -297,29 +335,31 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
     runnerLength: totalLength(runner.sections),
     events,
     history,
-    stats: { nodes: n, steps, scheme: scheme.name },
+    stats: { nodes: net.pipes.reduce((s, p) => s + p.scheme.mesh.n, 0), steps, scheme: numerics.scheme },
     trace: { crank, ...tr },
-    runnerMap: { x: mapX, pressure: mapP },
+    runnerMap: { x: runnerMap.x, pressure: runnerMap.pressure },
+    pipes,
   };
   return { result, warmStart };
 }
 
 /** the open-end correction [m] the runner is extended by (RunnerModel.endCorrection) */
 export function openEndCorrection(model: EngineModel): number {
-  const first = model.runner.sections[0];
-  if (model.runner.endCorrection !== undefined) return Math.max(0, model.runner.endCorrection);
-  return first ? 0.6133 * (first.diameterStart / 2) : 0;
+  return runnerEndCorrection(model);
 }
 
 /** the runner's sections with a straight virtual extension of length δ at the upstream end */
 export function withEndCorrection(sections: readonly RunnerSection[], delta: number): RunnerSection[] {
-  const first = sections[0];
-  if (!first || !(delta > 0)) return [...sections];
-  return [{ length: delta, diameterStart: first.diameterStart, diameterEnd: first.diameterStart }, ...sections];
+  return extendedSections(sections, delta, 0);
 }
 
-function diverged(model: EngineModel, cycle: number, phi: number, what: string): SimulationError {
-  const theta = Math.round(mod720(CYCLE_START + phi));
+/** The assembly simulatePoint steps for this model (for views and tests). */
+export function engineAssembly(model: EngineModel): EngineAssembly {
+  return assembleEngine(model);
+}
+
+function diverged(model: EngineModel, cycle: number, start: number, phi: number, what: string): SimulationError {
+  const theta = Math.round(mod720(start + phi));
   return new SimulationError(
     'diverged',
     `the solver diverged (${what}) at ${model.rpm} rpm, cycle ${cycle}, crank ${theta}°; ` +

@@ -52,6 +52,27 @@ export interface RunnerSection {
   diameterEnd: number;
 }
 
+/** A pipe other than the runner (snorkel, exhaust primary): sections and wall. */
+export interface PipeModel {
+  /** sections, from the end nearer the ambient air (snorkel) or the valve (exhaust) */
+  sections: RunnerSection[];
+  /** wall temperature [K] */
+  wallTemperature: number;
+  /** Fanning friction factor [-] (0 switches friction off) */
+  friction: number;
+  /** wall heat transfer on/off (Reynolds analogy with the friction factor) */
+  heatTransfer: boolean;
+}
+
+/**
+ * A side resonator on the runner, joined at `at` [m] measured from the valve
+ * along the runner: a closed side tube (quarter-wave) or a Helmholtz
+ * resonator (a neck into a closed volume).
+ */
+export type ResonatorModel =
+  | { kind: 'tube'; at: number; length: number; diameter: number }
+  | { kind: 'helmholtz'; at: number; neckLength: number; neckDiameter: number; volume: number };
+
 export interface EngineModel {
   name: string;
   engine: {
@@ -70,6 +91,14 @@ export interface EngineModel {
     backPressure: number;
     /** exhaust gas (residual) temperature [K] */
     gasTemperature: number;
+    /** the exhaust primary from the valve to the back-pressure reservoir (sections from the valve end) */
+    pipe?: PipeModel;
+    /**
+     * cylinder pressure at exhaust valve opening [Pa]: when set (default with
+     * an exhaust pipe), each cycle starts at EVO with the cylinder at this
+     * pressure, so the blowdown pulse runs down the exhaust pipe.
+     */
+    releasePressure?: number;
   };
   runner: {
     /** sections from the upstream (open) end to the valve end */
@@ -88,6 +117,8 @@ export interface EngineModel {
      * Default 0.6133·r of the entry (unflanged pipe, Levine & Schwinger 1948).
      */
     endCorrection?: number;
+    /** side resonators (junctions on the runner); none when absent */
+    resonators?: ResonatorModel[];
   };
   inlet:
     | { kind: 'ambient' }
@@ -95,10 +126,12 @@ export interface EngineModel {
         kind: 'plenum';
         /** plenum / airbox volume [m³] */
         volume: number;
-        /** feed restriction (throttle or airbox mouth) diameter [m] */
-        feedDiameter: number;
+        /** feed restriction (throttle or airbox mouth) diameter [m]; absent when a snorkel feeds the box */
+        feedDiameter?: number;
         /** feed discharge coefficient [-] */
         feedCd: number;
+        /** the airbox mouth as a 1-D pipe from the ambient into the box (sections from the ambient end) */
+        snorkel?: PipeModel & { entryLoss: number };
       };
   rpm: number;
   numerics: {
@@ -139,6 +172,8 @@ export interface CycleTrace {
   inletFlow: Float64Array;
   /** plenum pressure [Pa] (ambient pressure when there is no plenum) */
   plenumPressure: Float64Array;
+  /** pressure at the exhaust valve end of the exhaust pipe [Pa] (the back pressure when there is no exhaust pipe) */
+  exhaustPortPressure: Float64Array;
 }
 
 /**
@@ -147,6 +182,30 @@ export interface CycleTrace {
  * 720 rows (θ = 0..719) of `x.length` values [Pa].
  */
 export interface RunnerMap {
+  x: Float64Array;
+  pressure: Float64Array;
+}
+
+/** What a pipe of the network is for (views pick pipes by it). */
+export type PipeRole = 'runner' | 'snorkel' | 'exhaust' | 'resonator';
+
+/**
+ * Pressure along one pipe of the network against crank angle, as RunnerMap.
+ * The runner is one map even when resonator junctions split it into pieces.
+ * `x` runs from the pipe's upstream or valve end as its description says.
+ */
+export interface PipeMap {
+  /** name of the pipe in the network (the runner: "runner") */
+  name: string;
+  role: PipeRole;
+  /** words for a view: "runner, upstream end at the top" etc. */
+  label: string;
+  /** physical length [m] */
+  length: number;
+  /** what x = 0 is: "upstream end", "valve", "ambient end", "junction" */
+  start: string;
+  /** what x = length is */
+  end: string;
   x: Float64Array;
   pressure: Float64Array;
 }
@@ -184,4 +243,6 @@ export interface PointResult {
   stats: { nodes: number; steps: number; scheme: SchemeName };
   trace: CycleTrace;
   runnerMap: RunnerMap;
+  /** every pipe's map, the runner first */
+  pipes: PipeMap[];
 }

@@ -19,7 +19,8 @@ import { reduceApp, type KeyAction } from './keys.js';
 import { Lines } from './lines.js';
 import { colorWanted } from './palette.js';
 import { FileExistsError } from './save.js';
-import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type UiState } from './state.js';
+import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type PointShown, type UiState } from './state.js';
+import type { PipeShown } from './runner-screen.js';
 import { teachingLine } from './teach.js';
 import { etaPct, etaPoints, fit, joinFit, mg, wrapWords } from './text.js';
 import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
@@ -269,10 +270,11 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         crank={s.crank}
         from={from}
         span={span}
-        map={{ x: point.result.runnerMap.x, pressure: point.result.runnerMap.pressure, ambient: point.ambient }}
+        map={shownPipeMap(point, s.pipeIndex)}
         events={point.result.events}
         runnerLength={point.result.runnerLength}
         upstream={point.upstream}
+        pipe={shownPipe(point, s.pipeIndex)}
         roundTripDeg={point.pulse?.roundTripDeg}
         rpm={point.result.rpm}
         color={color}
@@ -289,6 +291,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         now={point.result.trace}
         before={s.baseline?.result.trace}
         reference={point.ambient}
+        exhaustPort={point.result.pipes.some((p) => p.role === 'exhaust') ? point.result.trace.exhaustPortPressure : undefined}
         events={point.result.events}
         verdict={point.pulse?.verdict}
         openingNote={point.pulse?.openingNote}
@@ -325,6 +328,30 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
       <Lines lines={[keyHints(s.view, w, s.playing)]} color={color} dim />
     </Box>
   );
+}
+
+/** The map of the pipe the Runner view shows (the runner when the case has no other). */
+function shownPipeMap(point: PointShown, index: number): { x: ArrayLike<number>; pressure: ArrayLike<number>; ambient: number } {
+  const m = point.result.pipes[index] ?? point.result.runnerMap;
+  return { x: m.x, pressure: m.pressure, ambient: point.ambient };
+}
+
+/** The words for the ends of the pipe shown, drawn with the engine end at the top. */
+export function shownPipe(point: PointShown, index: number): PipeShown | undefined {
+  const pipes = point.result.pipes;
+  const m = pipes[index];
+  if (!m || pipes.length <= 1) return undefined;
+  const base = { name: m.name, length: m.length, index, count: pipes.length };
+  switch (m.role) {
+    case 'runner':
+      return { ...base, top: 'valve', bottom: point.upstream === 'plenum' ? 'plenum' : 'open', startOnTop: false };
+    case 'snorkel':
+      return { ...base, top: 'airbox', bottom: 'ambient', startOnTop: false };
+    case 'exhaust':
+      return { ...base, top: 'valve', bottom: 'outlet', startOnTop: true };
+    case 'resonator':
+      return { ...base, top: 'runner', bottom: m.end === 'cavity' ? 'cavity' : 'closed', startOnTop: true };
+  }
 }
 
 /** |mass imbalance| per cycle above which the status line warns [-] (analysis/mass-balance.ts) */

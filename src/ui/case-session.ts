@@ -9,7 +9,7 @@ import type { EngineModel } from '../core/model.js';
 import { buildCase, CaseError, loadCase, UNITS, type LoadedCase } from '../case/index.js';
 import { printable } from '../case/printable.js';
 import { costBreakdown, costCulprit, duration, engineCost } from '../analysis/cost.js';
-import { FIELDS, sectionFields, type FieldDef } from './fields.js';
+import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
 import { fileExists, saveDirFor, saveEditedCase, suggestSavePath } from './save.js';
 import type { Edit } from './state.js';
 
@@ -73,13 +73,21 @@ export function sweepPlanOf(loaded: LoadedCase): SweepPlan {
 /** The panel's fields of a loaded case and their values, in display units. */
 export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: Record<string, number> } {
   const c = loaded.case;
-  const raw = loaded.data as { runner?: Record<string, unknown> };
+  const raw = loaded.data as { runner?: Record<string, unknown>; inlet?: { snorkel?: Record<string, unknown> }; exhaust?: { pipe?: Record<string, unknown> } };
   const plainRunner = raw.runner !== undefined && 'length' in raw.runner && !('sections' in raw.runner);
+  // a pipe given as length and diameter (not as sections) shows both
+  const plain = (p: Record<string, unknown> | undefined) => p !== undefined && 'length' in p && !('sections' in p);
+  const snorkel = c.inlet.kind === 'plenum' && plain(raw.inlet?.snorkel) ? c.inlet.snorkel?.sections[0] : undefined;
+  const exhaustPipe = plain(raw.exhaust?.pipe) ? c.exhaust.pipe?.sections[0] : undefined;
   const si: Record<string, number | undefined> = {
     rpm: c.rpm,
     'runner.length': plainRunner ? c.runner.sections[0]?.length : undefined,
     'runner.diameter': plainRunner ? c.runner.sections[0]?.diameterStart : undefined,
     'inlet.volume': c.inlet.kind === 'plenum' ? c.inlet.volume : undefined,
+    'inlet.snorkel.length': snorkel?.length,
+    'inlet.snorkel.diameter': snorkel?.diameterStart,
+    'exhaust.pipe.length': exhaustPipe?.length,
+    'exhaust.pipe.diameter': exhaustPipe?.diameterStart,
     'intake.opens': c.intake.opens,
     'intake.closes': c.intake.closes,
     'exhaust.opens': c.exhaust.opens,
@@ -94,9 +102,25 @@ export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: R
     si[`runner.sections.${i}.diameterStart`] = sec.diameterStart;
     si[`runner.sections.${i}.diameterEnd`] = sec.diameterEnd;
   });
-  // the runner's sections take the place of its length and diameter
+  const resonators: FieldDef[] = [];
+  (c.runner.resonator ?? []).forEach((r, i) => {
+    const fs = resonatorFields(i, r.kind);
+    resonators.push(...fs);
+    const base = `runner.resonator.${i}`;
+    si[`${base}.at`] = r.at;
+    if (r.kind === 'tube') {
+      si[`${base}.length`] = r.length;
+      si[`${base}.diameter`] = r.diameter;
+    } else {
+      si[`${base}.neckLength`] = r.neckLength;
+      si[`${base}.neckDiameter`] = r.neckDiameter;
+      si[`${base}.volume`] = r.volume;
+    }
+  });
+  // the runner's sections take the place of its length and diameter; its resonators follow
   const at = FIELDS.findIndex((f) => f.path === 'runner.length');
-  const ordered = [...FIELDS.slice(0, at), ...sections, ...FIELDS.slice(at)];
+  const after = FIELDS.findIndex((f) => f.path === 'inlet.volume');
+  const ordered = [...FIELDS.slice(0, at), ...sections, ...FIELDS.slice(at, after), ...resonators, ...FIELDS.slice(after)];
   const fields: FieldDef[] = [];
   const values: Record<string, number> = {};
   for (const f of ordered) {

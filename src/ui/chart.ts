@@ -24,6 +24,8 @@ export const GLYPH = {
   upOut: '╭',
   /** the pinned baseline */
   baseline: '·',
+  /** a second quantity drawn beside the current line (the exhaust-port pressure) */
+  second: '∘',
   /** the horizontal reference (ambient pressure, zero flow) */
   reference: '┈',
   /** the cursor column */
@@ -44,8 +46,8 @@ export const LINE_GLYPHS: ReadonlySet<string> = new Set([
 export interface ChartSeries {
   /** samples, one per x step (crank degree for crank charts) */
   values: ArrayLike<number>;
-  /** 'line' for the current result, 'dots' for a baseline */
-  style: 'line' | 'dots';
+  /** 'line' for the current result, 'dots' for a baseline, 'second' for a second quantity of the current result */
+  style: 'line' | 'dots' | 'second';
 }
 
 export interface ChartFrame {
@@ -176,8 +178,9 @@ export function plotBins(
   if (opts.cursorColumn !== undefined && opts.cursorColumn >= 0 && opts.cursorColumn < cols) {
     for (let r = 0; r < H; r++) setCell(grid, r, opts.cursorColumn, GLYPH.cursor);
   }
-  // baselines first, so the current line is drawn on top
-  const ordered = [...series].sort((a, b) => (a.style === b.style ? 0 : a.style === 'dots' ? -1 : 1));
+  // baselines first, then second quantities, so the current line is drawn on top
+  const rank = { dots: 0, second: 1, line: 2 } as const;
+  const ordered = [...series].sort((a, b) => rank[a.style] - rank[b.style]);
   for (const s of ordered) {
     let prevRow: number | undefined;
     for (let c = 0; c < cols; c++) {
@@ -199,8 +202,9 @@ export function plotBins(
         prevRow = undefined;
         continue;
       }
-      if (s.style === 'dots') {
-        for (let r = lo; r <= hi; r++) if (!LINE_GLYPHS.has(grid[r]?.[c] ?? '')) setCell(grid, r, c, GLYPH.baseline);
+      if (s.style !== 'line') {
+        const g = s.style === 'dots' ? GLYPH.baseline : GLYPH.second;
+        for (let r = lo; r <= hi; r++) if (!LINE_GLYPHS.has(grid[r]?.[c] ?? '')) setCell(grid, r, c, g);
         prevRow = lastRow;
         continue;
       }

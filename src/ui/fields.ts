@@ -58,6 +58,42 @@ export const FIELDS: readonly FieldDef[] = [
     hint: 'the airbox the runner draws from',
   },
   {
+    path: 'inlet.snorkel.length',
+    label: 'Snorkel length',
+    unit: 'mm',
+    unitWord: 'mm',
+    step: 10,
+    decimals: 0,
+    hint: 'the airbox mouth; longer or narrower: the box rings at a lower speed',
+  },
+  {
+    path: 'inlet.snorkel.diameter',
+    label: 'Snorkel diameter',
+    unit: 'mm',
+    unitWord: 'mm',
+    step: 1,
+    decimals: 1,
+    hint: 'wider: the box rings at a higher speed and restricts less',
+  },
+  {
+    path: 'exhaust.pipe.length',
+    label: 'Exhaust pipe length',
+    unit: 'mm',
+    unitWord: 'mm',
+    step: 10,
+    decimals: 0,
+    hint: 'from the exhaust valve to the silencer; sets when its suction wave reaches the overlap',
+  },
+  {
+    path: 'exhaust.pipe.diameter',
+    label: 'Exhaust pipe dia.',
+    unit: 'mm',
+    unitWord: 'mm',
+    step: 1,
+    decimals: 1,
+    hint: 'smaller: stronger pulses, more restriction at high speed',
+  },
+  {
     path: 'intake.opens',
     label: 'Intake opens',
     unit: '° BTDC',
@@ -154,6 +190,34 @@ export function sectionFields(count: number): FieldDef[] {
     );
   }
   return out;
+}
+
+/** The fields of side resonator i (`kind` tube: at, length, diameter; helmholtz: at, neck and volume). */
+export function resonatorFields(i: number, kind: 'tube' | 'helmholtz'): FieldDef[] {
+  const n = i + 1;
+  const base = `runner.resonator.${i}`;
+  const mm = (key: string, label: string, step: number, decimals: number, hint: string): FieldDef => ({
+    path: `${base}.${key}`,
+    label,
+    unit: 'mm',
+    unitWord: 'mm',
+    step,
+    decimals,
+    hint,
+  });
+  const at = mm('at', `Resonator ${n} at`, 10, 0, `where resonator ${n} joins the runner, measured from the valve`);
+  if (kind === 'tube')
+    return [
+      at,
+      mm('length', `Resonator ${n} length`, 10, 0, 'a closed side tube: longer, it works at a lower frequency (a quarter wave)'),
+      mm('diameter', `Resonator ${n} dia.`, 1, 1, 'wider: a stronger and broader effect'),
+    ];
+  return [
+    at,
+    mm('neckLength', `Resonator ${n} neck`, 5, 0, 'a longer neck lowers the Helmholtz frequency'),
+    mm('neckDiameter', `Resonator ${n} neck dia.`, 1, 1, 'a wider neck raises the Helmholtz frequency'),
+    { path: `${base}.volume`, label: `Resonator ${n} volume`, unit: 'L', unitWord: 'L', step: 0.05, decimals: 2, hint: 'a bigger cavity lowers the Helmholtz frequency' },
+  ];
 }
 
 export function fieldByPath(path: string, fields: readonly FieldDef[] = FIELDS): FieldDef | undefined {

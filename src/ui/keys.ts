@@ -70,6 +70,7 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '1 2 3 4', what: 'go to a view' },
       { keys: '+ -', what: `speed ±${RPM_STEP} rpm` },
       { keys: 's  x', what: 'run / stop sweep' },
+      { keys: '↑ ↓ (Runner)', what: 'pick the pipe' },
     ],
   },
   {
@@ -136,6 +137,10 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     if (input === ',') return { type: 'nudge', dir: -1 };
     if (input === '.') return { type: 'nudge', dir: 1 };
     if (input === 'w') return { type: 'beginSave' };
+  }
+  if (s.view === 'runner') {
+    if (key.upArrow) return { type: 'pipe', by: -1 };
+    if (key.downArrow) return { type: 'pipe', by: 1 };
   }
   if (s.view === 'sweep') {
     if (input === 's' || key.return) return { type: 'sweepStart' };

@@ -21,6 +21,7 @@ export const CHART_PALETTE: Palette = {
   [GLYPH.upIn]: 'cyan',
   [GLYPH.upOut]: 'cyan',
   [GLYPH.baseline]: 'magenta',
+  [GLYPH.second]: 'green',
   [GLYPH.reference]: 'gray',
   [GLYPH.cursor]: 'yellow',
   [GLYPH.band]: 'blue',

@@ -77,6 +77,8 @@ export interface UiState {
   /** fractional degrees carried between play ticks */
   playCarry: number;
   zoomIndex: number;
+  /** which pipe the Runner view shows: 0 the runner, then the case's other pipes */
+  pipeIndex: number;
   help: boolean;
   teach: boolean;
   quit: boolean;
@@ -128,6 +130,7 @@ export type Action =
   | { type: 'closeHelp' }
   | { type: 'toggleTeach' }
   | { type: 'zoom'; dir: 1 | -1 }
+  | { type: 'pipe'; by: number }
   | { type: 'pinBaseline' }
   | { type: 'quit' }
   | { type: 'select'; by: number }
@@ -172,6 +175,7 @@ export function initialState(o: InitOptions): UiState {
     rateIndex: 2,
     playCarry: 0,
     zoomIndex: 0,
+    pipeIndex: 0,
     help: false,
     teach: o.teach ?? true,
     quit: false,
@@ -336,6 +340,11 @@ export function reduce(s: UiState, a: Action): UiState {
       return { ...s, teach: !s.teach };
     case 'zoom':
       return { ...s, zoomIndex: Math.min(ZOOMS.length - 1, Math.max(0, s.zoomIndex + a.dir)) };
+    case 'pipe': {
+      const count = s.point?.result.pipes.length ?? 1;
+      if (count <= 1) return { ...s, pipeIndex: 0, message: { text: 'This case has one pipe, the runner.', tone: 'info' } };
+      return { ...s, pipeIndex: mod(s.pipeIndex + a.by, count), message: undefined };
+    }
     case 'pinBaseline':
       if (!s.point) return s;
       return { ...s, baseline: s.point, message: { text: 'Pinned this result as the baseline.', tone: 'info' } };

@@ -29,6 +29,8 @@ export interface ValveScreenInput {
   before?: ValveTraces | undefined;
   /** ambient (reference) pressure [Pa] */
   reference: number;
+  /** pressure at the exhaust valve end of the exhaust pipe [Pa], when the case has one */
+  exhaustPort?: ArrayLike<number> | undefined;
   events: { ivo: number; ivc: number; evo: number; evc: number };
   verdict?: string | undefined;
   /** what the valve sees when it opens (shown when there is room) */
@@ -69,6 +71,7 @@ export function valveScreen(i: ValveScreenInput): string[] {
 
   // pressure [kPa]
   const pS = series((t) => t.valvePressure, 1e-3);
+  if (i.exhaustPort) pS.push({ values: scaled(i.exhaustPort, 1e-3), style: 'second' });
   const pR = valueRange(
     pS.map((s) => s.values),
     { include: [i.reference / 1000], minSpan: 2, pad: 0.04 },
@@ -98,11 +101,16 @@ export function valveScreen(i: ValveScreenInput): string[] {
 
   const c = i.crank;
   const p = at(i.now.valvePressure, c);
-  const legend = i.before
-    ? `${GLYPH.flat} now ${GLYPH.baseline} baseline ${GLYPH.reference} ambient`
-    : `${GLYPH.flat} now ${GLYPH.reference} ambient`;
+  const legend =
+    `${GLYPH.flat} now ` +
+    (i.before ? `${GLYPH.baseline} baseline ` : '') +
+    (i.exhaustPort ? `${GLYPH.second} exh. port ` : '') +
+    `${GLYPH.reference} ambient`;
+  const port = i.exhaustPort ? at(i.exhaustPort, c) : undefined;
+  const portText = port !== undefined ? `, exhaust port ${kpaSigned(port - i.reference)}` : '';
   const pTitle = titleWithLegend(
     [
+      `Pressure at the valve  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient${portText})`,
       `Pressure at the valve  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient)`,
       `Valve pressure ${kpa(p)} kPa (${kpaSigned(p - i.reference)})`,
       `p ${kpa(p)} kPa`,

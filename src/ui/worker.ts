@@ -60,7 +60,7 @@ export function runPointJob(job: PointJob): PointReply {
 
 /** The buffers of a result's typed arrays, to transfer instead of copy. */
 export function resultBuffers(r: PointResult): ArrayBuffer[] {
-  const arrays = [...Object.values(r.trace), r.runnerMap.x, r.runnerMap.pressure];
+  const arrays = [...Object.values(r.trace), r.runnerMap.x, r.runnerMap.pressure, ...r.pipes.flatMap((p) => [p.x, p.pressure])];
   const seen = new Set<ArrayBuffer>();
   for (const a of arrays) if (a.buffer instanceof ArrayBuffer) seen.add(a.buffer);
   return [...seen];

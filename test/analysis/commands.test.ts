@@ -38,7 +38,7 @@ describe('bad ranges and options exit 2 naming the option', () => {
     [['tune', DEMO, '--vary', 'runner.length=450mm:250mm:50mm'], '--vary runner.length'],
     [['tune', DEMO, '--vary', 'runner.length=250mm:450mm:50cm'], '--vary runner.length'],
     [['tune', DEMO, '--vary', 'runner.length=250furlong:450furlong:50furlong'], '--vary runner.length'],
-    [['tune', DEMO, '--vary', 'a=1:2:1', '--vary', 'b=1:2:1', '--vary', 'c=1:2:1'], '--vary'],
+    [['tune', DEMO, '--vary', 'a=1:2:1', '--vary', 'b=1:2:1', '--vary', 'c=1:2:1', '--vary', 'd=1:2:1', '--vary', 'e=1:2:1'], '--vary'],
     [['tune', DEMO, '--vary', 'runner.lenght=250mm:450mm:50mm'], 'runner.lenght'],
     [['compare', DEMO], 'compare: missing B.yaml'],
     [['compare', DEMO, DEMO, '--rpm', '1:2'], '--rpm'],

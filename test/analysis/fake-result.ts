@@ -58,8 +58,10 @@ export function fakeResult(pressure: (theta: number) => number, o: FakeOptions =
       exhaustLift: zeros(),
       inletFlow: zeros(),
       plenumPressure,
+      exhaustPortPressure: zeros(),
     },
     runnerMap: { x: new Float64Array(2), pressure: new Float64Array(1440) },
+    pipes: [],
   };
 }
 

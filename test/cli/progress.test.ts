@@ -32,8 +32,8 @@ describe('cycle progress', () => {
     expect(cycleProgress(memoryIo({ stderrIsTTY: true }), { ...long, seconds: PROGRESS_AFTER_SECONDS / 2 })).toBeUndefined();
   });
   it('a run estimated above a few seconds shows it on a terminal stderr, and stdout is unchanged', async () => {
-    const argv = ['run', 'cases/demo.yaml', '--rpm', '3000', '--set', 'numerics.meshSize=2mm'];
-    expect(engineCost(testEngine({ rpm: 3000, meshSize: 0.002 })).seconds).toBeGreaterThan(PROGRESS_AFTER_SECONDS);
+    const argv = ['run', 'cases/demo.yaml', '--rpm', '4000', '--set', 'numerics.meshSize=1mm'];
+    expect(engineCost(testEngine({ rpm: 4000, meshSize: 0.001 })).seconds).toBeGreaterThan(PROGRESS_AFTER_SECONDS);
     const io = memoryIo({ stderrIsTTY: true, cwd: ROOT });
     expect(await runCli(argv, io)).toBe(0);
     expect(io.err()).toMatch(/run: cycle 1 of at most 30/);

@@ -21,6 +21,6 @@ describe('src/cli/main.ts as a process', () => {
     const r = tractwave(['check', 'cases/airbox-single.yaml']);
     expect(r.status).toBe(0);
     expect(r.stdout).toContain('the case is valid');
-    expect(r.stdout).toMatch(/plenum through its feed\s+\d+\.\d Hz/);
+    expect(r.stdout).toMatch(/airbox through its snorkel\s+\d+\.\d Hz/);
   });
 });

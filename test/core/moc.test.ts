@@ -7,7 +7,7 @@ import { createCharacteristicsScheme } from '../../src/core/pipe/moc.js';
 import { createPipeScheme } from '../../src/core/pipe/factory.js';
 import { closedEnd } from '../../src/core/boundary/closed.js';
 import { OpenEnd } from '../../src/core/boundary/open.js';
-import { Plenum } from '../../src/core/plenum.js';
+import { Chamber } from '../../src/core/network/volumes.js';
 import { withEndCorrection } from '../../src/core/engine.js';
 import { GAMMA, R_AIR, soundSpeed } from '../../src/core/gas.js';
 import { sampleRiemann, solveRiemann } from '../support/exact-riemann.js';
@@ -185,12 +185,12 @@ describe('ringing of a runner (Kinsler et al., Fundamentals of Acoustics; Levine
     const s = createCharacteristicsScheme(mesh, { friction: 0, heatTransfer: false, wallTemperature: T0 });
     s.fill(1e5, 0, T0);
     const amb = { pressure: 1e5, temperature: T0 };
-    const plenum = new Plenum(V, 0, amb);
-    plenum.reset(1.02e5, T0);
+    const plenum = new Chamber('plenum', V, 1.02e5, T0);
     const t: number[] = [];
     const y: number[] = [];
     drive(s, new OpenEnd(plenum, 0), new OpenEnd(amb, 0), 0.06, (tt, dt, l) => {
-      plenum.advance(dt, l.massFlow, l.enthalpyFlow);
+      plenum.addFlow(l.massFlow, l.enthalpyFlow, 0);
+      plenum.advance({ dt, thetaMid: 0, theta1: 0, rpm: 0 });
       t.push(tt);
       y.push(plenum.pressure);
     });

@@ -9,7 +9,7 @@
  * = 196 347 Pa/s.
  */
 import { describe, expect, it } from 'vitest';
-import { Plenum } from '../../src/core/plenum.js';
+import { Chamber } from '../../src/core/network/volumes.js';
 import { CP } from '../../src/core/gas.js';
 import { reservoirFlow } from '../../src/core/flow.js';
 import { simulatePoint } from '../../src/core/engine.js';
@@ -19,18 +19,20 @@ const AMB = { pressure: 101325, temperature: 293.15 };
 
 describe('plenum charging: dp/dt = γ·R·T0·ṁ/V', () => {
   it('6 L charged at 10 g/s from 293.15 K: 196 347 Pa/s (hand value above, within 0.1 %)', () => {
-    const pl = new Plenum(6e-3, 0, AMB); // no feed: only what is pushed in
+    const pl = new Chamber('plenum', 6e-3, AMB.pressure, AMB.temperature); // no feed: only what is pushed in
     const dt = 1e-5;
     const p0 = pl.pressure;
-    pl.advance(dt, 0.01, 0.01 * CP * 293.15);
+    pl.addFlow(0.01, 0.01 * CP * 293.15, 0);
+    pl.advance({ dt, thetaMid: 0, theta1: 0, rpm: 6000 });
     expect(Math.abs((pl.pressure - p0) / dt / 196347 - 1)).toBeLessThan(1e-3);
   });
 
   it('emptying at 10 g/s (the leaving gas carries its own enthalpy) lowers it at the same rate', () => {
-    const pl = new Plenum(6e-3, 0, AMB);
+    const pl = new Chamber('plenum', 6e-3, AMB.pressure, AMB.temperature);
     const dt = 1e-5;
     const p0 = pl.pressure;
-    pl.advance(dt, -0.01, -0.01 * CP * pl.temperature);
+    pl.addFlow(-0.01, -0.01 * CP * pl.temperature, 0);
+    pl.advance({ dt, thetaMid: 0, theta1: 0, rpm: 6000 });
     const rate = (p0 - pl.pressure) / dt;
     expect(Math.abs(rate / 196347 - 1)).toBeLessThan(1e-3);
   });

@@ -10,7 +10,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { buildCase } from '../../src/case/load.js';
-import { simulatePoint } from '../../src/core/engine.js';
+import { simulatePoint, type WarmStart } from '../../src/core/engine.js';
 import type { PointResult } from '../../src/core/model.js';
 import { randomEngine } from './random-engines.js';
 
@@ -39,7 +39,7 @@ function minOf(arr: ArrayLike<number>): number {
 }
 
 /** the quantities that must be positive, by name, with their smallest value */
-function positives(r: PointResult, warm: { pressure: number[]; temperature: number[] }): [string, number][] {
+function positives(r: PointResult, warm: WarmStart): [string, number][] {
   return [
     ['trace.valvePressure', minOf(r.trace.valvePressure)],
     ['trace.cylinderPressure', minOf(r.trace.cylinderPressure)],
@@ -49,8 +49,8 @@ function positives(r: PointResult, warm: { pressure: number[]; temperature: numb
     ['ivcPressure', r.ivcPressure],
     ['trappedMass', r.trappedMass],
     ['meanSoundSpeed (runner temperature)', r.meanSoundSpeed],
-    ['runner pressure at the end of the run', minOf(warm.pressure)],
-    ['runner temperature at the end of the run', minOf(warm.temperature)],
+    ['pipe pressures at the end of the run', Math.min(...warm.pipes.map((p) => minOf(p.pressure)))],
+    ['pipe temperatures at the end of the run', Math.min(...warm.pipes.map((p) => minOf(p.temperature)))],
   ];
 }
 

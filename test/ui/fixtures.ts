@@ -99,8 +99,9 @@ export function syntheticResult(o: SyntheticOptions = {}): PointResult {
     events: { ...EVENTS },
     history: [1, 2, 3],
     stats: { nodes, steps: 1000, scheme: 'characteristics' },
-    trace: { crank, valvePressure, valveFlow, cylinderPressure, cylinderMass, lift, exhaustLift, inletFlow, plenumPressure },
+    trace: { crank, valvePressure, valveFlow, cylinderPressure, cylinderMass, lift, exhaustLift, inletFlow, plenumPressure, exhaustPortPressure: new Float64Array(n).fill(AMBIENT) },
     runnerMap: { x, pressure },
+    pipes: [{ name: 'runner', role: 'runner', label: 'runner: upstream end to valve', length: L, start: 'upstream end', end: 'valve', x, pressure }],
   };
 }
 
@@ -212,7 +213,7 @@ export function fakeEngine(): EngineService & { runs: EngineModel[] } {
       const result = resultFor(model);
       return {
         result,
-        warmStart: { pressure: [], velocity: [], temperature: [] },
+        warmStart: { pipes: [], chambers: [] },
         pulse: { verdict: 'synthetic verdict: compression peaks 10° before the valve closes', roundTripDeg: 42, openingNote: 'synthetic opening note' },
       };
     },

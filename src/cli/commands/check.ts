@@ -3,12 +3,16 @@ import { printable } from '../../case/printable.js';
 import { clearanceVolume, sweptVolume } from '../../core/kinematics.js';
 import { curtainArea } from '../../core/valve.js';
 import { sectionsVolume, totalLength } from '../../core/pipe/mesh.js';
-import { caseEstimates, END_CORRECTION } from '../../analysis/estimates.js';
+import { caseEstimates, END_CORRECTION, quarterWaveFrequency } from '../../analysis/estimates.js';
+import { networkLine, pipeSize, resonatorWords } from '../../analysis/network-line.js';
+import { soundSpeed } from '../../core/gas.js';
+import { endCorrection as coreEndCorrection } from '../../core/network/end-correction.js';
+import { DEFAULT_RELEASE_PRESSURE } from '../../core/network/assemble.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
 import { ALLOW_EXTREME_OPTION, loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
-import { card, cc, cm2, deg, fix, hz, mm, row, rpm } from '../format.js';
+import { card, cc, cm2, deg, fix, hz, kPa, mm, row, rpm, wrap } from '../format.js';
 import type { LoadedCase } from '../../case/load.js';
-import { wrap720 } from '../../case/to-model.js';
+import { effectiveCard, wrap720 } from '../../case/to-model.js';
 import { eventLines } from '../run-output.js';
 
 const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION, ALLOW_EXTREME_OPTION];
@@ -24,7 +28,8 @@ export function checkReport(loaded: LoadedCase): string {
   const hi = c.sweep?.to ?? m.rpm * 1.5;
   const est = caseEstimates(m, lo, hi);
   const a = est.soundSpeed;
-  let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}: the case is valid\n\ngeometry\n`;
+  let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}: the case is valid\n`;
+  s += `  ${wrap(networkLine(m), 76, '    ')}\ngeometry\n`;
   s += row('displacement', `${cc(vd)}  (bore ${mm(m.engine.bore)} x stroke ${mm(m.engine.stroke)})`);
   s += row('clearance volume', `${cc(vc)}  (compression ratio ${fix(m.engine.compressionRatio, 2)})`);
   s += row('rod / crank radius', fix(m.engine.rod / (m.engine.stroke / 2), 2));
@@ -43,9 +48,14 @@ export function checkReport(loaded: LoadedCase): string {
   s += row('runner volume', `${cc(vr)}  (${fix(vr / vd, 2)} x displacement)`);
   s += row('entry loss, friction', `K ${fix(m.runner.entryLoss, 2)}, Fanning f ${m.runner.friction}${m.runner.heatTransfer ? ', wall heat transfer on' : ''}`);
   if (m.inlet.kind === 'plenum')
-    s += row('plenum', `${fix(m.inlet.volume * 1000, 2)} L (${fix(m.inlet.volume / vd, 1)} x displ.), feed ${mm(m.inlet.feedDiameter)}, Cd ${m.inlet.feedCd}`);
+    s += row(
+      'plenum',
+      `${fix(m.inlet.volume * 1000, 2)} L (${fix(m.inlet.volume / vd, 1)} x displ.), ` +
+        (m.inlet.snorkel ? `fed by a snorkel ${mm(totalLength(m.inlet.snorkel.sections), 0)} long` : `feed ${mm(m.inlet.feedDiameter ?? 0)}, Cd ${m.inlet.feedCd}`),
+    );
   else s += row('inlet', 'open to the ambient air');
 
+  s += partsReport(m);
   s += `\nhand estimates: rules of thumb, not the simulation (a = ${fix(a, 1)} m/s at ${fix(m.ambient.temperature - 273.15, 1)} °C)\n`;
   s += row('quarter-wave frequency', `${hz(est.quarterWaveFrequency)} = a/(4(L+δ)), δ = ${END_CORRECTION.unflanged}·r = ${mm(est.endCorrection)}`);
   s += row('wave order at case speed', `${fix((est.quarterWaveFrequency * 120) / m.rpm, 2)}  (f₁·120/N at ${rpm(m.rpm)})`);
@@ -56,13 +66,23 @@ export function checkReport(loaded: LoadedCase): string {
       : `no whole order k falls in ${fix(lo, 0)}–${fix(hi, 0)} rpm`,
   );
   s += row('Helmholtz (Engelman)', `${hz(est.helmholtz.frequency)}, peak near ${rpm(est.helmholtz.peakRpm)}`);
-  if (est.plenumFrequency !== null) s += row('plenum through its feed', hz(est.plenumFrequency));
+  if (est.plenumFrequency !== null)
+    s += row(m.inlet.kind === 'plenum' && m.inlet.snorkel ? 'airbox through its snorkel' : 'plenum through its feed', `${hz(est.plenumFrequency)} (Helmholtz, Kinsler et al.)`);
   s += row('wave round trip 12·N·L/a', `${deg((12 * m.rpm * L) / a, 1)} of crank at ${rpm(m.rpm)}  (2L/a = ${fix(((2 * L) / a) * 1000, 2)} ms)`);
 
   s += '\nevents, card as given\n';
   const note = (v: { checkingLift?: number | undefined }) => (v.checkingLift !== undefined ? ` at ${mm(v.checkingLift, 2)}` : ', zero lift');
   s += row('intake', `opens ${card(c.intake.opens, 'BTDC', 'ATDC', 1)}, closes ${card(c.intake.closes, 'ABDC', 'BBDC', 1)}${note(c.intake)}`);
   s += row('exhaust', `opens ${card(c.exhaust.opens, 'BBDC', 'ABDC', 1)}, closes ${card(c.exhaust.closes, 'ATDC', 'BTDC', 1)}${note(c.exhaust)}`);
+  for (const [side, v, o, cl] of [['intake', c.intake, ['BTDC', 'ATDC'], ['ABDC', 'BBDC']], ['exhaust', c.exhaust, ['BBDC', 'ABDC'], ['ATDC', 'BTDC']]] as const) {
+    if (v.shift === undefined && v.duration === undefined) continue;
+    const e = effectiveCard(v);
+    const what = [v.duration !== undefined ? `duration ${fix(v.duration, 1)}°` : '', v.shift !== undefined ? `shift ${v.shift > 0 ? '+' : v.shift < 0 ? '−' : ''}${fix(Math.abs(v.shift), 1)}°` : '']
+      .filter((x) => x !== '')
+      .join(', ');
+    s += row(`${side}, as moved`, `opens ${card(e.opens, o[0], o[1], 1)}, closes ${card(e.closes, cl[0], cl[1], 1)}`);
+    s += `  (by ${side}.${what.replace(', ', ` and ${side}.`)})\n`;
+  }
   const widened = c.intake.checkingLift !== undefined || c.exhaust.checkingLift !== undefined;
   if (widened) s += '  (measured at a checking lift: widened below to the zero-lift ends)\n';
   s += '\nevents as θ, 0 = TDC at the start of the intake stroke\n';
@@ -73,6 +93,34 @@ export function checkReport(loaded: LoadedCase): string {
   const ov = wrap720(ev.evc - ev.ivo);
   const overlap = ov < intakeDur && ov < exhaustDur ? ov : 0;
   s += row('durations', `intake ${deg(intakeDur, 1)}, exhaust ${deg(exhaustDur, 1)}, overlap ${deg(overlap, 1)}`);
+  return s;
+}
+
+/** the snorkel, the exhaust pipe and the resonators: sizes and their own frequencies */
+function partsReport(m: LoadedCase['model']): string {
+  let s = '';
+  const a = soundSpeed(m.ambient.temperature);
+  if (m.inlet.kind === 'plenum' && m.inlet.snorkel) {
+    const sn = m.inlet.snorkel;
+    s += row('snorkel', `${pipeSize(sn.sections)} mm (length × diameter), entry loss K ${fix(sn.entryLoss, 2)}`);
+  }
+  const ex = m.exhaust;
+  if (ex.pipe) {
+    const L = totalLength(ex.pipe.sections);
+    const aEx = soundSpeed(ex.gasTemperature);
+    s += row('exhaust pipe', `${pipeSize(ex.pipe.sections)} mm (length × diameter) to ${kPa(ex.backPressure)}, wall ${fix(ex.pipe.wallTemperature, 0)} K`);
+    s += row('exhaust round trip', `${deg((12 * m.rpm * L) / aEx, 1)} of crank at ${rpm(m.rpm)} (a ${fix(aEx, 0)} m/s at ${fix(ex.gasTemperature, 0)} K)`);
+    s += row('cycle starts at EVO', `cylinder at ${kPa(ex.releasePressure ?? DEFAULT_RELEASE_PRESSURE)}${ex.releasePressure === undefined ? ' (exhaust.releasePressure default)' : ''}`);
+  }
+  for (const [k, r] of (m.runner.resonators ?? []).entries()) {
+    const words = resonatorWords(m)[k]!;
+    const f =
+      r.kind === 'tube'
+        ? quarterWaveFrequency(a, r.length, coreEndCorrection('flanged', r.diameter))
+        : (a / (2 * Math.PI)) * Math.sqrt(((Math.PI / 4) * r.neckDiameter ** 2) / (r.volume * (r.neckLength + 2 * coreEndCorrection('flanged', r.neckDiameter))));
+    s += row(`resonator ${k + 1}`, words);
+    s += row('', `${hz(f)}${r.kind === 'tube' ? ' = a/(4(L+δ)), δ = 0.8216·r (flanged)' : ' = (a/2π)·√(S/(V·L′)), L′ = L + 2·0.8216·r'}`);
+  }
   return s;
 }
 

@@ -4,6 +4,7 @@
  * side and where each one wins.
  */
 import { printable } from '../../case/printable.js';
+import { networkLine } from '../../analysis/network-line.js';
 import { performance } from 'node:perf_hooks';
 import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
 import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
@@ -165,7 +166,9 @@ examples
     const out: string[] = [
       `compare over ${fix(rpms[0]!, 0)}–${fix(rpms[rpms.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm (${rpms.length * 2} points, ${fix(wallSeconds, 1)} s)`,
       `  A (line ─): ${a.model.name} [${printable(fileA!)}]`,
+      `    ${networkLine(a.model)}`,
       `  B (dots ·): ${b.model.name} [${printable(fileB!)}]`,
+      `    ${networkLine(b.model)}`,
       '',
       'volumetric efficiency ηv [%] against speed',
     ];

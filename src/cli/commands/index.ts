@@ -10,5 +10,6 @@ import { pipeCommand } from './pipe.js';
 import { sweepCommand } from './sweep.js';
 import { tuneCommand } from './tune.js';
 import { compareCommand } from './compare.js';
+import { mergeCommand } from './merge.js';
 
-export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, compareCommand];
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, mergeCommand, compareCommand];

@@ -81,11 +81,11 @@ examples
     const warnings = runWarnings(result, loaded.model.numerics.maxCycles);
     for (const w of warnings) io.stderr.write(`${w}\n`);
     if (args.flag('json')) {
-      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, warnings))}\n`);
+      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, loaded.model, warnings))}\n`);
       return 0;
     }
     if (csv !== undefined) {
-      await writeFileAtomic(csv, traceCsv(result), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+      await writeFileAtomic(csv, traceCsv(result, loaded.model), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     }
     io.stdout.write(runSummary(loaded, result, pulse, wallSeconds));
     if (csv !== undefined) io.stdout.write(`\nwrote the trace (${result.trace.crank.length} rows, one per crank degree) to ${csv}\n`);

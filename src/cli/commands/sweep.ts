@@ -5,6 +5,7 @@
  * Also the pieces `tune` and `compare` share: speed range and band from the
  * options or the case, --jobs, progress on stderr, the curve chart.
  */
+import { networkLine } from '../../analysis/network-line.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
 import { curveWarnings } from '../../analysis/plausibility.js';
 import { engineCost } from '../../analysis/cost.js';
@@ -160,7 +161,11 @@ export function progress(io: CliIo, what: string): { tick: (done: number, total:
 }
 
 /** Warnings for points that did not converge or lost mass. */
-export function sweepWarnings(points: readonly SweepPoint[], maxCycles: number, label = ''): string[] {
+export function sweepWarnings(
+  points: readonly (Pick<SweepPoint, 'rpm' | 'converged' | 'massImbalance' | 'volumetricEfficiency'> & Partial<Pick<SweepPoint, 'residualFraction'>>)[],
+  maxCycles: number,
+  label = '',
+): string[] {
   const out: string[] = [];
   const bad = points.filter((p) => !p.converged);
   const who = label ? `${label}: ` : '';
@@ -530,6 +535,7 @@ examples
     out.push(
       `${loaded.model.name}: speed sweep ${fix(grid.values[0]!, 0)}–${fix(grid.values[grid.values.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm` +
         ` (${points.length} points, ${jobs} job${jobs === 1 ? '' : 's'}, ${fix(wallSeconds, 1)} s)`,
+      `  ${networkLine(loaded.model)}`,
       '',
       'volumetric efficiency ηv [%] against speed',
     );
