@@ -134,6 +134,9 @@ describe('control characters from a case file are shown escaped, never sent to t
         expect(r.out).toContain('evil\\e[2J\\e]0;title\\x07\\0 single');
         expect(r.out).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f]/);
       }
+      // the terminal view's header shows the session's name
+      const { openCase } = await import('../../src/ui/case-session.js');
+      expect((await openCase(file)).name).toBe('evil\\e[2J\\e]0;title\\x07\\0 single');
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
