@@ -84,10 +84,14 @@ export function App(props: AppProps): React.JSX.Element {
   const onKey = useCallback((input: string, key: Key) => dispatch({ type: 'key', input, key }), []);
   useInput(onKey, { isActive: isRawModeSupported === true });
 
-  // the first name offered for saving
+  // the first names offered for saving the case and for its report
   useEffect(() => {
     void session.suggestSavePath().then(
       (path) => dispatch({ type: 'suggestSave', path }),
+      () => undefined,
+    );
+    void session.suggestReportPath().then(
+      (path) => dispatch({ type: 'suggestReport', path }),
       () => undefined,
     );
   }, [session]);
@@ -175,15 +179,16 @@ export function App(props: AppProps): React.JSX.Element {
         if (live) dispatch({ type: 'saveChecked', exists });
       });
     } else if (save.stage === 'saving') {
-      session.save(state.edits, save.path, save.overwrite).then(
+      const report = save.kind === 'report';
+      (report ? session.report(state.edits, save.path, save.overwrite) : session.save(state.edits, save.path, save.overwrite)).then(
         async (path) => {
-          const next = await session.suggestSavePath().catch(() => '');
+          const next = await (report ? session.suggestReportPath() : session.suggestSavePath()).catch(() => '');
           if (live) dispatch({ type: 'saved', path, next });
         },
         (e: unknown) => {
           if (!live) return;
           if (e instanceof FileExistsError) dispatch({ type: 'saveChecked', exists: true });
-          else dispatch({ type: 'saveFailed', message: `Not saved: ${saveProblem(e, save.path)}` });
+          else dispatch({ type: 'saveFailed', message: `${report ? 'No report written' : 'Not saved'}: ${saveProblem(e, save.path)}` });
         },
       );
     }

@@ -23,7 +23,7 @@ export interface CaseScreenInput {
   result?: ResultNumbers | undefined;
   baseline?: ResultNumbers | undefined;
   baselineLabel?: string | undefined;
-  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string } | undefined;
+  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; kind?: 'case' | 'report' } | undefined;
 }
 
 export interface ResultNumbers {
@@ -43,17 +43,22 @@ export function caseScreen(i: CaseScreenInput): string[] {
 
   const below: string[] = [fit('', w)];
   if (i.save) {
+    const report = i.save.kind === 'report';
     const prompt =
       i.save.stage === 'confirm'
         ? `${i.save.path} already exists. Overwrite it? y = yes, n = choose another name`
         : i.save.stage === 'typing'
-          ? `Save the changed case as: ${i.save.path}▌   (enter saves, esc cancels)`
-          : `Saving to ${i.save.path} …`;
+          ? report
+            ? `Write the report of this case (HTML) to: ${i.save.path}▌   (enter writes, esc cancels)`
+            : `Save the changed case as: ${i.save.path}▌   (enter saves, esc cancels)`
+          : report
+            ? `Writing the report to ${i.save.path} … (a sweep and the best speed run first: a few seconds)`
+            : `Saving to ${i.save.path} …`;
     below.push(...wrapWords(prompt, w, 2));
   } else if (i.editing !== undefined && sel) {
     below.push(...wrapWords(`Type the new ${sel.label.toLowerCase()} in ${sel.unit}; enter runs it, esc keeps the old value.`, w, 2));
   } else if (sel) {
-    below.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it, w saves.`, w, 2));
+    below.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it, w saves, r writes a report.`, w, 2));
   }
   below.push(fit('', w));
   const r = i.result;

@@ -4,13 +4,15 @@
  * every unit conversion stays in src/case), the values the panel shows, the
  * sweep plan, and saving. An interface, so tests can give a fake one.
  */
-import { basename } from 'node:path';
+import { basename, dirname, extname, join, resolve } from 'node:path';
+import { DEFAULT_OUTPUT_ASSUMPTIONS } from '../analysis/estimates.js';
 import type { EngineModel } from '../core/model.js';
 import { buildCase, CaseError, loadCase, UNITS, type LoadedCase } from '../case/index.js';
 import { printable } from '../case/printable.js';
 import { costBreakdown, costCulprit, duration, engineCost } from '../analysis/cost.js';
 import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
-import { fileExists, saveDirFor, saveEditedCase, suggestSavePath } from './save.js';
+import { fileExists, saveDirFor, saveEditedCase, suggestSavePath, writeFileAtomic } from './save.js';
+import { packageVersion } from '../cli/package-root.js';
 import type { Edit } from './state.js';
 
 export interface SweepPlan {
@@ -33,6 +35,10 @@ export interface CaseSession {
   exists: (path: string) => Promise<boolean>;
   /** save to `path` (absolute or relative to the cwd); returns the absolute path written */
   save: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
+  /** the first free name for a report of this case */
+  suggestReportPath: () => Promise<string>;
+  /** write the HTML report of the case with `edits` to `path`; returns the absolute path written */
+  report: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
 }
 
 /** A value in model units → the display unit `unitWord` ('' = as is), by the case loader's unit table. */
@@ -174,5 +180,53 @@ export async function openCase(file: string, opts: OpenOptions = {}): Promise<Ca
     suggestSavePath: async () => suggestSavePath(file, fileExists, await saveDirFor(file)),
     exists: fileExists,
     save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),
+    suggestReportPath: async () => suggestReportPath(file, fileExists, await saveDirFor(file)),
+    report: async (edits, path, overwrite) => {
+      const edited = buildCase(structuredClone(raw), file, { set: setsOf(edits) });
+      const plan = sweepPlanOf(edited);
+      const html = await reportOfCase(edited, file, plan);
+      const full = resolve(path);
+      await writeFileAtomic(full, html, overwrite);
+      return full;
+    },
   };
+}
+
+/** demo.yaml → demo-report.html, then demo-report-2.html … (the first that does not exist) in `dir` */
+export async function suggestReportPath(caseFile: string, exists: (p: string) => Promise<boolean> = fileExists, dir: string = dirname(caseFile)): Promise<string> {
+  const stem = basename(caseFile, extname(caseFile));
+  for (let n = 1; n < 10000; n++) {
+    const candidate = join(dir, `${stem}-report${n === 1 ? '' : `-${n}`}.html`);
+    if (!(await exists(candidate))) return candidate;
+  }
+  return join(dir, `${stem}-report.html`);
+}
+
+/**
+ * The report of a loaded case over the view's sweep plan (the speeds the
+ * Sweep view shows), the same document as \`tractwave report\` makes. The
+ * report modules (and vega) are loaded only when a report is asked for.
+ */
+export async function reportOfCase(loaded: LoadedCase, file: string, plan: SweepPlan): Promise<string> {
+  const { buildReport, gatherReport } = await import('../report/index.js');
+  const c = loaded.case;
+  const assumptions = {
+    airFuelRatio: c.estimate?.airFuelRatio ?? DEFAULT_OUTPUT_ASSUMPTIONS.airFuelRatio,
+    fuelHeatingValue: c.estimate?.fuelHeatingValue ?? DEFAULT_OUTPUT_ASSUMPTIONS.fuelHeatingValue,
+    brakeEfficiency: c.estimate?.brakeEfficiency ?? DEFAULT_OUTPUT_ASSUMPTIONS.brakeEfficiency,
+  };
+  const data = await gatherReport({
+    design: { name: loaded.model.name || basename(file), file: basename(file), case: c, model: loaded.model },
+    rpms: plan.rpms,
+    band: plan.band,
+    assumptions,
+  });
+  const now = new Date();
+  const built = await buildReport(data, {
+    generatedAt: `${now.toISOString().slice(0, 16).replace('T', ' ')} UTC`,
+    version: packageVersion(),
+    units: 'metric',
+    speedsFrom: "the terminal view's sweep",
+  });
+  return built.html;
 }

@@ -69,7 +69,7 @@ export function keyHints(view: ViewName, width: number, playing: boolean): strin
     valve: ['z zoom', 'p pin'],
     runner: ['z zoom'],
     sweep: ['s sweep', 'x stop', 'p pin'],
-    case: ['↑↓ choose', 'enter type', ', . step', 'w save'],
+    case: ['↑↓ choose', 'enter type', ', . step', 'w save', 'r report'],
   };
   const parts = view === 'case' ? [...byView.case, 'tab view', '+/- rpm'] : [...common, ...byView[view]];
   const tail = '? help  q quit';

@@ -79,7 +79,7 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '↑ ↓', what: 'choose a value' },
       { keys: 'enter', what: 'type it, enter runs' },
       { keys: ',  .', what: 'step down / up' },
-      { keys: 'w', what: 'save to a new file' },
+      { keys: 'w  r', what: 'save case / report' },
     ],
   },
 ];
@@ -185,6 +185,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'showView', view: 'sweep' };
     case 'w':
       return { type: 'beginSave' };
+    case 'r':
+      return { type: 'beginReport' };
   }
   if (/^[1-4]$/.test(input)) {
     const view = VIEWS[Number(input) - 1];

@@ -111,8 +111,10 @@ export interface UiState {
   /** the edits the current sweep was run with */
   sweepEdits?: Edit[] | undefined;
 
-  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; overwrite: boolean } | undefined;
+  /** a file being written: the edited case ('case', key w) or the report of it ('report', key r) */
+  save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; overwrite: boolean; kind: 'case' | 'report' } | undefined;
   suggestedSavePath: string;
+  suggestedReportPath: string;
   message?: { text: string; tone: 'info' | 'error' } | undefined;
 }
 
@@ -149,11 +151,13 @@ export type Action =
   | { type: 'sweepFailed'; id: number; message: string }
   | { type: 'pinSweep' }
   | { type: 'beginSave' }
+  | { type: 'beginReport' }
   | { type: 'saveChecked'; exists: boolean }
   | { type: 'confirm'; yes: boolean }
   | { type: 'saved'; path: string; next: string }
   | { type: 'saveFailed'; message: string }
   | { type: 'suggestSave'; path: string }
+  | { type: 'suggestReport'; path: string }
   | { type: 'message'; text: string; tone: 'info' | 'error' };
 
 export interface InitOptions {
@@ -163,6 +167,7 @@ export interface InitOptions {
   fields?: readonly FieldDef[];
   sweepPlan: { rpms: number[]; band: { from: number; to: number } };
   suggestedSavePath: string;
+  suggestedReportPath?: string;
   teach?: boolean;
 }
 
@@ -191,6 +196,7 @@ export function initialState(o: InitOptions): UiState {
     sweepRequest: 0,
     sweepStatus: 'idle',
     suggestedSavePath: o.suggestedSavePath,
+    suggestedReportPath: o.suggestedReportPath ?? '',
   };
 }
 
@@ -386,7 +392,7 @@ export function reduce(s: UiState, a: Action): UiState {
       return applyValue(s, f, v);
     }
     case 'cancel': {
-      if (s.save) return { ...s, save: undefined, message: { text: 'Not saved.', tone: 'info' } };
+      if (s.save) return { ...s, save: undefined, message: { text: s.save.kind === 'report' ? 'No report written.' : 'Not saved.', tone: 'info' } };
       if (s.editing !== undefined) return { ...s, editing: undefined };
       if (s.help) return { ...s, help: false };
       return s;
@@ -461,7 +467,18 @@ export function reduce(s: UiState, a: Action): UiState {
         view: 'case',
         help: false,
         editing: undefined,
-        save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false },
+        save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false, kind: 'case' },
+        message: undefined,
+      };
+    case 'beginReport':
+      // the prompt is in the case view too
+      return {
+        ...s,
+        view: 'case',
+        help: false,
+        editing: undefined,
+        playing: false,
+        save: { stage: 'typing', path: s.suggestedReportPath, overwrite: false, kind: 'report' },
         message: undefined,
       };
     case 'saveChecked':
@@ -478,6 +495,8 @@ export function reduce(s: UiState, a: Action): UiState {
       if (!a.yes) return { ...s, save: { ...s.save, stage: 'typing' }, message: { text: 'Choose another name.', tone: 'info' } };
       return { ...s, save: { ...s.save, stage: 'saving', overwrite: true } };
     case 'saved':
+      if (s.save?.kind === 'report')
+        return { ...s, save: undefined, suggestedReportPath: a.next, message: { text: `Report written to ${a.path}`, tone: 'info' } };
       return {
         ...s,
         save: undefined,
@@ -488,6 +507,8 @@ export function reduce(s: UiState, a: Action): UiState {
       return { ...s, save: undefined, message: { text: a.message, tone: 'error' } };
     case 'suggestSave':
       return { ...s, suggestedSavePath: a.path };
+    case 'suggestReport':
+      return { ...s, suggestedReportPath: a.path };
     case 'message':
       return { ...s, message: { text: a.text, tone: a.tone } };
   }

@@ -142,3 +142,11 @@ describe('control characters from a case file are shown escaped, never sent to t
     }
   }, 30_000);
 });
+
+describe('the report command keeps the same guards', () => {
+  it('speed limits, the cost limit and the plausibility ranges', async () => {
+    expectRefused(await tractwave(['report', DEMO, '--out', 'never.html', '--rpm', '1:3:1']), '--rpm', 'between 100 and 100000');
+    expectRefused(await tractwave(['report', DEMO, '--out', 'never.html', '--set', 'numerics.meshSize=0.05mm']), 'numerics.meshSize', '--allow-long');
+    expectRefused(await tractwave(['report', DEMO, '--out', 'never.html', '--set', 'ambient.pressure=1Pa']), 'ambient.pressure', '--allow-extreme');
+  });
+});

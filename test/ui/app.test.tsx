@@ -177,6 +177,30 @@ describe('the terminal view', () => {
     expect(t.session.saved[1]).toEqual({ edits: [], path: '/cases/synthetic-2.yaml', overwrite: true });
   });
 
+  it('r writes a report of the case being edited, asks before replacing a file and says where it went', async () => {
+    const t = start();
+    await t.until('IVC');
+    await t.press('+'); // an edit: the report is of the edited case
+    await t.until('6250');
+    await t.press('r');
+    expect(t.frame()).toContain('Write the report of this case (HTML) to: /cases/synthetic-report.html');
+    await t.press(ENTER);
+    await t.until('Report written to');
+    expect(t.session.reports).toEqual([{ edits: [{ path: 'rpm', value: '6250' }], path: '/cases/synthetic-report.html', overwrite: false }]);
+    expect(t.frame()).toContain('Report written to /cases/synthetic-report.html');
+    // the next name offered is a new one; asked for an existing name, it asks first
+    await t.press('r');
+    expect(t.frame()).toContain('/cases/synthetic-report-2.html');
+    await t.press(...Array.from({ length: 7 }, () => BACKSPACE), '.html', ENTER);
+    await t.until('already exists');
+    expect(t.frame()).toContain('/cases/synthetic-report.html already exists. Overwrite it?');
+    expect(t.session.reports).toHaveLength(1);
+    await t.press('n');
+    await t.press('\u001b'); // esc: no report
+    await t.until('No report written.');
+    expect(t.session.reports).toHaveLength(1);
+  });
+
   it.each([
     [80, 24],
     [72, 22],

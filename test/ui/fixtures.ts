@@ -146,11 +146,14 @@ function num(text: string): number {
 
 export interface FakeSession extends CaseSession {
   saved: { edits: readonly Edit[]; path: string; overwrite: boolean }[];
+  /** the reports asked for (the fake writes none) */
+  reports: { edits: readonly Edit[]; path: string; overwrite: boolean }[];
   existing: Set<string>;
 }
 
 export function fakeSession(): FakeSession {
   const saved: FakeSession['saved'] = [];
+  const reports: FakeSession['reports'] = [];
   const existing = new Set<string>(['/cases/synthetic-2.yaml']);
   return {
     file: '/cases/synthetic.yaml',
@@ -185,7 +188,19 @@ export function fakeSession(): FakeSession {
       existing.add(path);
       return path;
     },
+    async suggestReportPath() {
+      for (let k = 1; ; k++) {
+        const p = `/cases/synthetic-report${k === 1 ? '' : `-${k}`}.html`;
+        if (!existing.has(p)) return p;
+      }
+    },
+    async report(edits, path, overwrite) {
+      reports.push({ edits, path, overwrite });
+      existing.add(path);
+      return path;
+    },
     saved,
+    reports,
     existing,
   };
 }

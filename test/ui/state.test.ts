@@ -267,7 +267,7 @@ describe('the sweep', () => {
 describe('saving', () => {
   it('offers a new name, checks it, and saves', () => {
     let s = press(withPoint(), 'w');
-    expect(s.save).toEqual({ stage: 'typing', path: '/cases/x-2.yaml', overwrite: false });
+    expect(s.save).toEqual({ stage: 'typing', path: '/cases/x-2.yaml', overwrite: false, kind: 'case' });
     s = press(s, '', { return: true });
     expect(s.save?.stage).toBe('checking');
     s = reduce(s, { type: 'saveChecked', exists: false });

@@ -11,5 +11,6 @@ import { sweepCommand } from './sweep.js';
 import { tuneCommand } from './tune.js';
 import { compareCommand } from './compare.js';
 import { mergeCommand } from './merge.js';
+import { reportCommand } from './report.js';
 
-export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, mergeCommand, compareCommand];
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, mergeCommand, compareCommand, reportCommand];

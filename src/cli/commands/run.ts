@@ -9,13 +9,15 @@ import { engineCost } from '../../analysis/cost.js';
 import { cycleProgress } from '../progress.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
 import { checkOutputFile, writeFileAtomic } from '../write-file.js';
+import { checkTarget } from '../target.js';
 
 const OPTIONS: OptionSpec[] = [
   RPM_OPTION,
   SET_OPTION,
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units, crank degrees)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write the per-degree trace of the converged cycle to FILE' },
-  { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of valve pressure, valve flow and cylinder mass against crank angle to FILE (SVG)' },
+  { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
 ];
@@ -24,7 +26,7 @@ export const runCommand: Command = {
   name: 'run',
   summary: 'simulate one operating point: ηv, trapped mass, pulse timing',
   help: `usage: tractwave run CASE [--rpm N] [--set path=value ...]
-                     [--json | --csv FILE [--force]]
+                     [--json | --csv FILE] [--svg FILE] [--force]
 
 Simulates the case at one speed, cycle after cycle until periodic, and prints
 volumetric efficiency, delivered and trapped mass, residual gas, pressures at
@@ -56,13 +58,19 @@ examples
   tractwave run cases/demo.yaml
   tractwave run cases/demo.yaml --rpm 8000 --set runner.length=320mm
   tractwave run cases/demo.yaml --csv demo-trace.csv
+  tractwave run cases/demo.yaml --svg demo-valve.svg
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
     const [file] = expectPositionals(args, ['CASE'], 'run');
     const csv = args.string('csv');
     if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
-    if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
+    const svg = args.string('svg');
+    if (args.flag('force') && csv === undefined && svg === undefined) throw new CaseError('--force', 'only applies with --csv FILE or --svg FILE', 'option');
+    if (svg !== undefined) {
+      if (!/\.svg$/i.test(svg)) throw new CaseError('--svg', `expected a file name ending in .svg, got '${svg}'`, 'option');
+      checkTarget(svg, '--svg', io, args.flag('force'));
+    }
     const loaded = await loadCaseFromArgs(file!, args, io);
     // a file that may not be written is refused before the run, not after it
     if (csv !== undefined) await checkOutputFile(csv, { force: args.flag('force'), option: '--csv', cwd: io.cwd });
@@ -80,6 +88,11 @@ examples
     const pulse = pulseTiming(result, loaded.model);
     const warnings = runWarnings(result, loaded.model.numerics.maxCycles);
     for (const w of warnings) io.stderr.write(`${w}\n`);
+    if (svg !== undefined) {
+      const { renderSvg, units, valveChart } = await import('../../report/index.js');
+      const chart = valveChart({ rpm: result.rpm, reason: 'asked', result, pulse }, units('metric'), pulse.referencePressure);
+      await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
+    }
     if (args.flag('json')) {
       io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, loaded.model, warnings))}\n`);
       return 0;
@@ -89,6 +102,7 @@ examples
     }
     io.stdout.write(runSummary(loaded, result, pulse, wallSeconds));
     if (csv !== undefined) io.stdout.write(`\nwrote the trace (${result.trace.crank.length} rows, one per crank degree) to ${csv}\n`);
+    if (svg !== undefined) io.stdout.write(`${csv === undefined ? '\n' : ''}wrote the valve chart to ${svg}\n`);
     return 0;
   },
 };

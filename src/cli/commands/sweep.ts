@@ -23,8 +23,8 @@ import { expectPositionals, optionHelp, parseArgs, type OptionSpec, type ParsedA
 import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
 import { fix, table, wrap } from '../format.js';
 import type { CliIo } from '../io.js';
-import { writeError, writeFileAtomic } from '../write-file.js';
-import { inspectTargetSync } from '../../case/target.js';
+import { writeFileAtomic } from '../write-file.js';
+import { checkTarget } from '../target.js';
 import { timeLeft } from '../progress.js';
 
 /** speed range used when neither --rpm nor the case's `sweep` key gives one */
@@ -401,20 +401,13 @@ export function sweepCsv(points: readonly SweepPoint[]): string {
  * --csv FILE or --json (not both). An existing FILE without --force is refused
  * here, before any simulation runs (the atomic write checks again at the end).
  */
-export function csvAndJsonChoice(args: ParsedArgs, io: CliIo): string | undefined {
+export function csvAndJsonChoice(args: ParsedArgs, io: CliIo, withSvg = false): string | undefined {
   const csv = args.string('csv');
   if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
-  if (args.flag('force') && csv === undefined) throw new CaseError('--force', 'only applies with --csv FILE', 'option');
-  if (csv !== undefined) {
-    let t;
-    try {
-      t = inspectTargetSync(resolve(io.cwd, csv));
-    } catch (e) {
-      throw writeError(e, csv, '--csv');
-    }
-    if (t.kind === 'other') throw new CaseError('--csv', `'${csv}' is ${t.what}, not a file: it is never replaced; choose a file name`, 'option');
-    if (t.kind === 'file' && !args.flag('force')) throw new CaseError('--csv', `'${csv}' already exists; add --force to overwrite it`, 'option');
-  }
+  if (args.flag('force') && csv === undefined && !(withSvg && args.string('svg') !== undefined))
+    throw new CaseError('--force', `only applies with --csv FILE${withSvg ? ' or --svg FILE' : ''}`, 'option');
+  // the same checks as every output file (cli/target.ts): not over anything but a regular file, not unasked
+  if (csv !== undefined) checkTarget(csv, '--csv', io, args.flag('force'));
   return csv;
 }
 
@@ -430,7 +423,8 @@ const OPTIONS: OptionSpec[] = [
   JOBS_OPTION,
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed to FILE (header row with units)' },
-  { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of ηv against speed (band, mean, best speed, tuned speeds) to FILE (SVG)' },
+  { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
 ];
@@ -452,7 +446,7 @@ export const sweepCommand: Command = {
   summary: 'ηv, estimated torque and power against speed; band mean and best speed',
   help: `usage: tractwave sweep CASE [--rpm FROM:TO:STEP] [--band LO:HI]
                        [--set path=value ...] [--jobs N]
-                       [--json | --csv FILE [--force]]
+                       [--json | --csv FILE] [--svg FILE] [--force]
 
 Simulates the case at each speed of the range and shows volumetric efficiency
 against speed as a chart and a table, the mean over the speed band (area under
@@ -489,11 +483,17 @@ examples
   tractwave sweep cases/demo.yaml
   tractwave sweep cases/demo.yaml --rpm 4000:9000:500 --set runner.length=320mm
   tractwave sweep cases/demo.yaml --csv demo-sweep.csv
+  tractwave sweep cases/demo.yaml --svg demo-sweep.svg
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
     const [file] = expectPositionals(args, ['CASE'], 'sweep');
-    const csv = csvAndJsonChoice(args, io);
+    const csv = csvAndJsonChoice(args, io, true);
+    const svg = args.string('svg');
+    if (svg !== undefined) {
+      if (!/\.svg$/i.test(svg)) throw new CaseError('--svg', `expected a file name ending in .svg, got '${svg}'`, 'option');
+      checkTarget(svg, '--svg', io, args.flag('force'));
+    }
     const jobs = parseJobs(args);
     const loaded = await loadForSweep(file!, args, io);
     const grid = sweepGrid(args, loaded.case);
@@ -513,6 +513,11 @@ examples
     const estimates = caseEstimates(loaded.model, grid.values[0]!, grid.values[grid.values.length - 1]!);
     for (const w of sweepWarnings(points, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
+    if (svg !== undefined) {
+      const { renderSvg, speedVeChart } = await import('../../report/index.js');
+      const chart = speedVeChart({ design: { name: loaded.model.name }, rpms: grid.values, band, curve: { points, summary }, estimates });
+      await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
+    }
 
     if (args.flag('json')) {
       const json: SweepJson = {
@@ -561,6 +566,7 @@ examples
     io.stdout.write(wrapLine(`* ${assumptionLine(assumptions)}`) + '\n');
     io.stdout.write('results are estimates from a simplified model: verify them on an engine.\n');
     if (csv !== undefined) io.stdout.write(`wrote ${points.length} rows (one per speed) to ${csv}\n`);
+    if (svg !== undefined) io.stdout.write(`wrote the chart of ηv against speed to ${svg}\n`);
     return 0;
   },
 };
