@@ -62,3 +62,30 @@ describe('cylinder wall heat transfer (Woschni, Heywood 1988 §12.4)', () => {
     }
   });
 });
+
+describe('cylinder composition: the burned (residual) gas is tracked through inflow and outflow', () => {
+  // mass balance of the two species by hand: start 1 g all burned; 1 g fresh in → 2 g, 1 g burned (50 %);
+  // then 0.5 g of the mixture out → 1.5 g, 0.75 g burned (still 50 %)
+  it('fresh gas in dilutes it, mixture out keeps its fraction', () => {
+    const cyl = new Cylinder(heywood, undefined);
+    cyl.reset(180, 1e5, 300);
+    const m0 = cyl.mass;
+    expect(cyl.burned).toBe(m0); // a reset cylinder holds only residual gas
+    const dt = 1e-3;
+    cyl.advance(dt, 180, m0 / dt, (m0 / dt) * 1004.675 * 300, 0, 3000); // as much fresh air again, at 300 K
+    expect(cyl.mass / m0).toBeCloseTo(2, 9);
+    expect(cyl.burned / cyl.mass).toBeCloseTo(0.5, 9);
+    const out = 0.25 * cyl.mass;
+    cyl.advance(dt, 180, -out / dt, 0, (-out / dt) * 0.5, 3000); // a quarter of the mixture leaves, half of it burned
+    expect(cyl.mass / m0).toBeCloseTo(1.5, 9);
+    expect(cyl.burned / cyl.mass).toBeCloseTo(0.5, 9);
+  });
+  it('never holds more burned gas than gas, nor less than none', () => {
+    const cyl = new Cylinder(heywood, undefined);
+    cyl.reset(180, 1e5, 300);
+    cyl.advance(1e-3, 180, 0, 0, 10, 3000); // asked to add burned gas with no mass: capped at the mass
+    expect(cyl.burned).toBeCloseTo(cyl.mass, 12);
+    cyl.advance(1e-3, 180, 0, 0, -1e6, 3000); // asked to remove more than there is: none left, not negative
+    expect(cyl.burned).toBe(0);
+  });
+});

@@ -47,6 +47,12 @@ describe('the default discharge-coefficient table', () => {
     const at = (ld: number) => dischargeCoefficient(DEFAULT_CD_TABLE, ld) * ld;
     expect(at(0.4) / at(0.25)).toBeLessThan(1.05);
   });
+  it('past the table the effective area stops growing: the port throat limits (Heywood 1988 §6.3, from memory): Cd(0.5) = 0.36 · 0.4/0.5 = 0.288', () => {
+    expect(dischargeCoefficient(DEFAULT_CD_TABLE, 0.5)).toBeCloseTo(0.288, 9);
+    expect(dischargeCoefficient(DEFAULT_CD_TABLE, 0.8)).toBeCloseTo(0.18, 9);
+    // and the table is read between its points: half way from L/D 0.2 (0.61) to 0.25 (0.56)
+    expect(dischargeCoefficient(DEFAULT_CD_TABLE, 0.225)).toBeCloseTo(0.585, 9);
+  });
 });
 
 describe('steady flow at a fixed lift and pressure ratio (Heywood 1988 App. C orifice example × Cd × curtain area)', () => {
