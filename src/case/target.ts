@@ -6,7 +6,6 @@
  * Used by the command line's --csv and the terminal view's save.
  */
 import { lstatSync, realpathSync, statSync, type Stats } from 'node:fs';
-import { lstat, realpath, stat } from 'node:fs/promises';
 
 export type TargetKind = 'none' | 'file' | 'other';
 
@@ -26,32 +25,8 @@ function whatIs(s: Stats): string {
   return 'not a regular file';
 }
 
-export async function inspectTarget(full: string): Promise<Target> {
-  let l;
-  try {
-    l = await lstat(full);
-  } catch (e) {
-    if ((e as NodeJS.ErrnoException).code === 'ENOENT') return { kind: 'none', path: full };
-    throw e;
-  }
-  if (l.isFile()) return { kind: 'file', path: full };
-  if (l.isSymbolicLink()) {
-    let s;
-    try {
-      s = await stat(full);
-    } catch (e) {
-      // a dangling link: writing through it would create a file somewhere else
-      if ((e as NodeJS.ErrnoException).code === 'ENOENT') return { kind: 'other', path: full, what: 'a symbolic link to nothing' };
-      throw e;
-    }
-    if (s.isFile()) return { kind: 'file', path: await realpath(full) };
-    return { kind: 'other', path: full, what: `a symbolic link to ${whatIs(s)}` };
-  }
-  return { kind: 'other', path: full, what: whatIs(l) };
-}
-
-/** inspectTarget without waiting (for checks made while parsing options) */
-export function inspectTargetSync(full: string): Target {
+/** What is at `full` now (synchronous: a few system calls, made before any work). */
+export function inspectTarget(full: string): Target {
   let l;
   try {
     l = lstatSync(full);

@@ -9,7 +9,7 @@ import { closeSync, existsSync, openSync, statSync, unlinkSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { CaseError } from '../case/errors.js';
 import type { CliIo } from './io.js';
-import { inspectTargetSync } from '../case/target.js';
+import { inspectTarget } from '../case/target.js';
 import { writeError } from './write-file.js';
 
 /**
@@ -21,7 +21,7 @@ export function checkTarget(file: string, option: string, io: Pick<CliIo, 'cwd'>
   const full = resolve(io.cwd, file);
   let target;
   try {
-    target = inspectTargetSync(full);
+    target = inspectTarget(full);
   } catch (e) {
     throw writeError(e, file, option);
   }

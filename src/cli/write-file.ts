@@ -73,7 +73,7 @@ export async function checkOutputFile(file: string, opts: { force?: boolean; opt
   const full = resolve(opts.cwd ?? process.cwd(), file);
   let target;
   try {
-    target = await inspectTarget(full);
+    target = inspectTarget(full);
   } catch (e) {
     throw writeError(e, file, label);
   }
@@ -112,7 +112,7 @@ export async function writeFileAtomic(
     handle = undefined;
     if (opts.force) {
       // the name may have become something else meanwhile: look again just before the rename
-      const again = await inspectTarget(full);
+      const again = inspectTarget(full);
       if (again.kind === 'other') throw new CaseError(label, `'${file}' is ${again.what}, not a file: it is never replaced; choose a file name`, 'option');
       await rename(tmp, full);
     } else {
@@ -124,7 +124,7 @@ export async function writeFileAtomic(
         const code = (e as NodeJS.ErrnoException).code;
         if (code === 'EEXIST') throw new CaseError(label, `'${file}' already exists; add --force to overwrite it`, 'option');
         if (code !== 'EPERM' && code !== 'ENOTSUP' && code !== 'EOPNOTSUPP' && code !== 'EXDEV') throw e;
-        if ((await inspectTarget(full)).kind !== 'none') throw new CaseError(label, `'${file}' already exists; add --force to overwrite it`, 'option');
+        if ((inspectTarget(full)).kind !== 'none') throw new CaseError(label, `'${file}' already exists; add --force to overwrite it`, 'option');
         await rename(tmp, full); // the file system has no hard links
       }
     }
