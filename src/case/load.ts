@@ -26,6 +26,7 @@ import { closest } from './suggest.js';
 import { plausibilityIssues } from './plausibility.js';
 import { printable } from './printable.js';
 import { toEngineModel, toPipeModel } from './to-model.js';
+import { attachCaseFiles, prepareLiftLogs, type CaseFiles } from './measured-files.js';
 
 export const MAX_CASE_BYTES = 1024 * 1024;
 
@@ -55,6 +56,8 @@ export interface LoadedCase {
   data: Record<string, unknown>;
   case: Case;
   model: EngineModel;
+  /** the measured-data files the case names, read (measured-files.ts) */
+  files: CaseFiles;
 }
 
 export interface LoadedPipeCase {
@@ -263,16 +266,19 @@ export function buildCase(raw: Record<string, unknown>, file = '', opts: LoadOpt
   const data = structuredClone(raw);
   applySets(data, opts.set ?? [], caseSchema);
   if (opts.rpm !== undefined) data.rpm = opts.rpm;
-  const v = validateCase(data);
+  // measured files, relative to the case file: lift logs give their valve's card before validation
+  const lifts = prepareLiftLogs(data, file, opts.cwd);
+  const v = validateCase(lifts.data);
   if (!v.ok) throw firstIssue(v.issues);
   if (!opts.allowExtreme) {
     const p = plausibilityIssues(v.value)[0];
     if (p) throw new CaseError(p.path, `${p.message}; add --allow-extreme to run it anyway`, 'invalid');
   }
-  const model = toEngineModel(v.value, fileStem(file));
+  const { case: c, files } = attachCaseFiles(v.value, lifts.logs, file, opts.cwd);
+  const model = toEngineModel(c, fileStem(file));
   // a name is shown on terminals: escape sequences and NUL in it are shown escaped, never sent
   model.name = printable(model.name);
-  return { file, data, case: v.value, model };
+  return { file, data, case: c, model, files };
 }
 
 export function buildPipeCase(raw: Record<string, unknown>, file = '', opts: Pick<LoadOptions, 'set'> = {}): LoadedPipeCase {

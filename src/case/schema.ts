@@ -13,6 +13,8 @@ import { z } from 'zod';
 import type { ResonatorModel, SchemeName } from '../core/model.js';
 import { DEFAULT_SCHEME as CORE_DEFAULT_SCHEME } from '../core/index.js';
 import { parseQuantity, MODEL_UNIT, type QuantityKind } from './units.js';
+import { ALTITUDE_LIMITS, standardAtmosphere } from '../core/atmosphere.js';
+import { BENCH_DEFAULTS } from './flow-sheet.js';
 import { didYouMean } from './suggest.js';
 
 /** Default runner scheme when the case does not choose one: the core's. */
@@ -193,10 +195,56 @@ const valveKeys = {
   duration: q('angle', { positive: true }).optional(),
 };
 
+/** A file named in a case: a path relative to the case file's folder (read in measured-files.ts). */
+function fileName() {
+  return z.unknown().transform((v, ctx): string => {
+    if (typeof v !== 'string' || v.trim() === '') {
+      ctx.addIssue({ code: 'custom', message: `expected a file name (a CSV file, relative to the case file), got ${v === undefined ? 'nothing' : JSON.stringify(v)}` });
+      return z.NEVER;
+    }
+    return v;
+  });
+}
+
+/** Measured data of a valve (measured-files.ts reads the files; see README "Using your own measurements"). */
+const measuredValveKeys = {
+  /** a logged lift curve (CSV: crank_deg | cam_deg, lift_mm | lift_in); then opens, closes and maxLift come from it */
+  liftFile: fileName().optional(),
+  /** running clearance subtracted from the logged lift */
+  lash: q('length', { nonNegative: true }).optional(),
+  /** a flow-bench sheet (CSV: lift_mm | lift_in, flow_cfm | flow_L_per_s | flow_kg_per_s): the Cd table */
+  flowFile: fileName().optional(),
+  /** the test depression the sheet was flowed at, below the room */
+  flowTestPressure: pressure().optional(),
+  /** valve head diameter on the bench; default: the valve's own */
+  flowDiameter: length().optional(),
+  /** multiplies the Cd table (calibration); default 1 */
+  cdScale: q('dimensionless', { positive: true }).optional(),
+};
+
+/** largest cdScale a case may give [-] */
+export const CD_SCALE_MAX = 2;
+
+function measuredValveChecks(v: { liftFile?: string | undefined; lash?: number | undefined; liftTable?: unknown; flowFile?: string | undefined; flowTestPressure?: number | undefined; flowDiameter?: number | undefined; cdTable?: unknown; cdScale?: number | undefined }, ctx: IssueSink): void {
+  const issue = (path: string, message: string) => ctx.addIssue({ code: 'custom', path: [path], message });
+  if (v.liftFile === undefined && v.lash !== undefined) issue('lash', 'applies to a liftFile (the lash is subtracted from the logged lift): add liftFile or remove lash');
+  if (v.liftFile !== undefined && v.liftTable !== undefined) issue('liftTable', 'give either liftTable or liftFile (the logged curve), not both');
+  if (v.flowFile !== undefined) {
+    if (v.cdTable !== undefined) issue('cdTable', 'give either cdTable or flowFile (the bench sheet gives the Cd table), not both');
+    if (v.flowTestPressure === undefined) issue('flowTestPressure', 'required with flowFile: the test depression the sheet was flowed at, e.g. "28 inH2O"');
+    else if (!(v.flowTestPressure < BENCH_DEFAULTS.pressure))
+      issue('flowTestPressure', `must be below the bench's room pressure (${BENCH_DEFAULTS.pressure} Pa): it is the depression below it, got ${Number(v.flowTestPressure.toPrecision(6))} Pa`);
+  } else {
+    if (v.flowTestPressure !== undefined) issue('flowTestPressure', 'applies to a flowFile: add flowFile or remove flowTestPressure');
+    if (v.flowDiameter !== undefined) issue('flowDiameter', 'applies to a flowFile: add flowFile or remove flowDiameter');
+  }
+  if (v.cdScale !== undefined && v.cdScale > CD_SCALE_MAX) issue('cdScale', `must be at most ${CD_SCALE_MAX}, got ${v.cdScale}`);
+}
+
 /** largest cam shift a case may ask for [deg crank] */
 export const SHIFT_LIMIT = 180;
 
-const intakeSchema = z.strictObject(valveKeys);
+const intakeSchema = z.strictObject({ ...valveKeys, ...measuredValveKeys }).superRefine(measuredValveChecks);
 
 
 const sectionSchema = z.strictObject({
@@ -330,13 +378,14 @@ const exhaustPipeSchema = z.strictObject(pipeKeys).transform(pipeShape('an exhau
 
 const exhaustSchema = z.strictObject({
   ...valveKeys,
+  ...measuredValveKeys,
   backPressure: pressure(),
   gasTemperature: temperature(),
   /** cylinder pressure at exhaust valve opening (the blowdown); default with an exhaust pipe */
   releasePressure: pressure().optional(),
   /** the exhaust primary from the valve to the back-pressure reservoir */
   pipe: exhaustPipeSchema.optional(),
-});
+}).superRefine(measuredValveChecks);
 
 const inletSchema = z
   .discriminatedUnion('kind', [
@@ -349,6 +398,8 @@ const inletSchema = z
       feedCd: q('dimensionless', { positive: true }).default(0.8),
       /** the airbox mouth as a 1-D pipe from the ambient into the box */
       snorkel: snorkelSchema.optional(),
+      /** boost: the feed draws from this supply (a charger's outlet) instead of the ambient */
+      supply: z.strictObject({ pressure: pressure(), temperature: temperature() }).optional(),
     }),
   ])
   .default({ kind: 'ambient' });
@@ -362,6 +413,39 @@ const numericsSchema = z
     scheme: oneOf(SCHEMES).default(DEFAULT_SCHEME),
   })
   .prefault({});
+
+/**
+ * The ambient: pressure and temperature, or an altitude, from which the U.S.
+ * Standard Atmosphere 1976 gives whichever of the two is not stated.
+ */
+const ambientSchema = z
+  .strictObject({ pressure: pressure().optional(), temperature: temperature().optional(), altitude: q('length').optional() })
+  .transform((a, ctx): { pressure: number; temperature: number; altitude?: number } => {
+    const z0 = a.altitude;
+    if (z0 !== undefined && !(z0 >= ALTITUDE_LIMITS.min && z0 <= ALTITUDE_LIMITS.max)) {
+      ctx.addIssue({ code: 'custom', path: ['altitude'], message: `must be between ${ALTITUDE_LIMITS.min} m and ${ALTITUDE_LIMITS.max} m (the standard atmosphere's layers used here), got ${Number(z0.toPrecision(6))} m` });
+      return z.NEVER;
+    }
+    const std = z0 !== undefined ? standardAtmosphere(z0) : undefined;
+    const pressureValue = a.pressure ?? std?.pressure;
+    const temperatureValue = a.temperature ?? std?.temperature;
+    for (const [k, v] of [['pressure', pressureValue], ['temperature', temperatureValue]] as const)
+      if (v === undefined) {
+        ctx.addIssue({ code: 'custom', path: [k], message: 'required (or give ambient.altitude: the U.S. Standard Atmosphere 1976 then gives it)' });
+        return z.NEVER;
+      }
+    return { pressure: pressureValue!, temperature: temperatureValue!, ...(z0 !== undefined ? { altitude: z0 } : {}) };
+  });
+
+/** measured data the case names for the views and as the commands' defaults */
+const measuredTraceSchema = z.strictObject({
+  /** CSV: crank_deg, pressure_kPa | pressure_kPa_gauge */
+  file: fileName(),
+  /** the transducer's distance from the valve along the runner; default 0 (at the valve) */
+  sensorAt: q('length', { nonNegative: true }).default(0),
+  /** added to the logged crank angles to give θ */
+  tdcOffset: q('angle').default(0),
+});
 
 const speedRange = z.strictObject({ from: q('speed', { positive: true }), to: q('speed', { positive: true }), step: q('speed', { positive: true }) });
 const speedBand = z.strictObject({ from: q('speed', { positive: true }), to: q('speed', { positive: true }) });
@@ -377,7 +461,7 @@ export const caseSchema = z
       compressionRatio: q('dimensionless'),
       wallTemperature: temperature().optional(),
     }),
-    ambient: z.strictObject({ pressure: pressure(), temperature: temperature() }),
+    ambient: ambientSchema,
     /** opens ° BTDC, closes ° ABDC */
     intake: intakeSchema,
     /** opens ° BBDC, closes ° ATDC */
@@ -397,6 +481,10 @@ export const caseSchema = z
         brakeEfficiency: q('dimensionless', { positive: true }).optional(),
       })
       .optional(),
+    /** a dyno sheet (CSV: rpm + torque_Nm | torque_lbft | power_kW | power_hp | ve_pct): the Sweep view's points, the default of --measured */
+    measured: fileName().optional(),
+    /** a runner pressure trace: the Valve view's overlay, the default of run --measured-trace */
+    measuredTrace: measuredTraceSchema.optional(),
   })
   .superRefine((c, ctx) => {
     const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });

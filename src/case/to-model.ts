@@ -146,7 +146,8 @@ function valveModel(
     openAngle: open,
     closeAngle: close,
     ...(v.liftTable ? { liftTable: v.liftTable } : {}),
-    cdTable: v.cdTable ?? DEFAULT_CD_TABLE.map((p) => ({ ...p })),
+    // the case's table (or the one of its flow sheet, measured-files.ts), scaled by cdScale
+    cdTable: (v.cdTable ?? DEFAULT_CD_TABLE).map((p) => ({ x: p.x, y: p.y * (v.cdScale ?? 1) })),
   };
 }
 
@@ -169,6 +170,7 @@ function plenumModel(inlet: Extract<Case['inlet'], { kind: 'plenum' }>, ambientT
     ...(inlet.feedDiameter !== undefined ? { feedDiameter: inlet.feedDiameter } : {}),
     feedCd: inlet.feedCd,
     ...(inlet.snorkel ? { snorkel: { ...pipeModel(inlet.snorkel, ambientTemperature), entryLoss: inlet.snorkel.entryLoss } } : {}),
+    ...(inlet.supply ? { supply: { pressure: inlet.supply.pressure, temperature: inlet.supply.temperature } } : {}),
   };
 }
 

@@ -4,7 +4,7 @@
  */
 import { printable } from '../case/printable.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
-import { resultProblems, resultWarnings } from '../analysis/plausibility.js';
+import { maxVolumetricEfficiency, resultProblems, resultWarnings } from '../analysis/plausibility.js';
 import type { EngineModel, PointResult } from '../core/model.js';
 import { soundSpeed } from '../core/gas.js';
 import { feedInertance } from '../analysis/estimates.js';
@@ -111,7 +111,7 @@ export function traceCsv(r: PointResult, model: EngineModel): string {
 }
 
 /** Warnings for stderr: non-convergence and a poor mass balance. */
-export function runWarnings(r: PointResult, maxCycles: number): string[] {
+export function runWarnings(r: PointResult, maxCycles: number, model?: Pick<EngineModel, 'inlet' | 'ambient'>): string[] {
   const w: string[] = [];
   if (!r.converged) {
     const h = r.history;
@@ -124,7 +124,7 @@ export function runWarnings(r: PointResult, maxCycles: number): string[] {
     w.push(
       `warning: mass imbalance ${pct(r.massImbalance, 2)} (runner inlet vs intake valve) is above ${pct(MASS_IMBALANCE_WARNING)}: try a smaller numerics.meshSize`,
     );
-  for (const x of resultWarnings(r)) w.push(`warning: ${x}`);
+  for (const x of resultWarnings(r, model)) w.push(`warning: ${x}`);
   return w;
 }
 
@@ -163,7 +163,7 @@ export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTimin
   s += r.converged
     ? `  periodic after ${r.cycles} cycles (tolerance ${m.numerics.tolerance})\n\n`
     : `  NOT converged after ${r.cycles} cycles: figures are from the last cycle run\n\n`;
-  const implausible = resultProblems({ volumetricEfficiency: r.volumetricEfficiency, residualFraction: r.residualFraction }).length > 0;
+  const implausible = resultProblems({ volumetricEfficiency: r.volumetricEfficiency, residualFraction: r.residualFraction }, maxVolumetricEfficiency(m)).length > 0;
   s += row('volumetric efficiency', `${pct(r.volumetricEfficiency)}${implausible ? '  (NOT a breathing figure: see the warning)' : ''}`);
   s += row('delivered mass', `${mg(r.deliveredMass)} per cycle (through the intake valve)`);
   s += row('trapped mass at IVC', mg(r.trappedMass));

@@ -132,6 +132,11 @@ export interface EngineModel {
         feedCd: number;
         /** the airbox mouth as a 1-D pipe from the ambient into the box (sections from the ambient end) */
         snorkel?: PipeModel & { entryLoss: number };
+        /**
+         * boost: the feed (orifice or snorkel) draws from this supply reservoir
+         * [Pa, K] instead of the ambient; ηv stays on the ambient density
+         */
+        supply?: { pressure: number; temperature: number };
       };
   rpm: number;
   numerics: {

@@ -4,12 +4,13 @@
  * background, the play timer, saving — and passes plain numbers to the
  * display-only views.
  */
-import { dirname, resolve } from 'node:path';
+import { basename, dirname, resolve } from 'node:path';
 import React, { useCallback, useEffect, useReducer, useRef } from 'react';
 import { Box, useApp, useInput, useStdin, type Key } from 'ink';
 import type { WarmStart } from '../core/engine.js';
 import type { EngineModel } from '../core/model.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
+import { compareTrace } from '../analysis/trace-compare.js';
 import { windowStart } from './chart.js';
 import type { CaseSession } from './case-session.js';
 import type { EngineService } from './engine-service.js';
@@ -21,6 +22,7 @@ import { colorWanted } from './palette.js';
 import { FileExistsError } from './save.js';
 import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type PointShown, type UiState } from './state.js';
 import type { PipeShown } from './runner-screen.js';
+import type { ValveMeasured } from './valve-screen.js';
 import { teachingLine } from './teach.js';
 import { etaPct, etaPoints, fit, joinFit, mg, wrapWords } from './text.js';
 import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
@@ -113,6 +115,17 @@ export function App(props: AppProps): React.JSX.Element {
         (out) => {
           warm.current = out.warmStart;
           if (!live) return;
+          // the case's measured trace against this result (analysis, on this thread: 720 samples)
+          const trace = session.measured?.trace;
+          let traceCheck: PointShown['traceCheck'];
+          if (trace) {
+            try {
+              const c = compareTrace(out.result, model, trace.byDegree, trace.sensorAt);
+              traceCheck = { model: c.model, verdict: c.verdict };
+            } catch {
+              traceCheck = undefined; // the point stands without the comparison
+            }
+          }
           dispatch({
             type: 'pointDone',
             id: request.id,
@@ -122,6 +135,7 @@ export function App(props: AppProps): React.JSX.Element {
               label: request.label,
               ambient: model.ambient.pressure,
               upstream: model.inlet.kind,
+              ...(traceCheck ? { traceCheck } : {}),
             },
           });
         },
@@ -242,6 +256,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         currentRpm={rpm}
         status={s.sweepStatus}
         stale={sweepIsStale(s)}
+        measured={s.measured && session.measured?.dyno ? { points: session.measured.dyno.points, label: `dyno ${basename(session.measured.dyno.file)}` } : undefined}
         color={color}
       />
     );
@@ -300,6 +315,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         events={point.result.events}
         verdict={point.pulse?.verdict}
         openingNote={point.pulse?.openingNote}
+        measured={s.measured ? valveMeasured(session, point) : undefined}
         color={color}
       />
     );
@@ -333,6 +349,16 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
       <Lines lines={[keyHints(s.view, w, s.playing)]} color={color} dim />
     </Box>
   );
+}
+
+/** The measured data the Valve view draws: the case's trace (with the model at its sensor) and intake lift log. */
+export function valveMeasured(session: CaseSession, point: PointShown): ValveMeasured | undefined {
+  const m = session.measured;
+  if (!m || (!m.trace && !m.lift)) return undefined;
+  return {
+    ...(m.trace && point.traceCheck ? { trace: { pressure: m.trace.byDegree, model: point.traceCheck.model, sensorAt: m.trace.sensorAt }, verdict: point.traceCheck.verdict } : {}),
+    ...(m.lift ? { lift: m.lift } : {}),
+  };
 }
 
 /** The map of the pipe the Runner view shows (the runner when the case has no other). */

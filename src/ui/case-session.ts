@@ -10,6 +10,10 @@ import type { EngineModel } from '../core/model.js';
 import { buildCase, CaseError, loadCase, UNITS, type LoadedCase } from '../case/index.js';
 import { printable } from '../case/printable.js';
 import { costBreakdown, costCulprit, duration, engineCost } from '../analysis/cost.js';
+import { liftByDegree } from '../case/lift-file.js';
+import { dynoAsEta } from '../analysis/dyno.js';
+import { density } from '../core/gas.js';
+import { sweptVolume } from '../core/kinematics.js';
 import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
 import { fileExists, saveDirFor, saveEditedCase, suggestSavePath, writeFileAtomic } from './save.js';
 import { packageVersion } from '../cli/package-root.js';
@@ -39,6 +43,46 @@ export interface CaseSession {
   suggestReportPath: () => Promise<string>;
   /** write the HTML report of the case with `edits` to `path`; returns the absolute path written */
   report: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
+  /** the measured data the case names (its measuredTrace, intake.liftFile and measured keys) */
+  measured?: SessionMeasured | undefined;
+}
+
+export interface SessionMeasured {
+  /** a runner pressure trace: absolute [Pa] per degree, the sensor's distance from the valve [m] */
+  trace?: { byDegree: Float64Array; sensorAt: number; file: string } | undefined;
+  /** the logged intake valve lift [m] per degree (NaN off the log) */
+  lift?: Float64Array | undefined;
+  /** dyno points on the ηv scale (a torque or power through the case's estimate assumptions) */
+  dyno?: { file: string; points: { rpm: number; eta: number }[] } | undefined;
+}
+
+/** What the views show of a case's measured files. */
+export function measuredOf(loaded: LoadedCase): SessionMeasured | undefined {
+  const f = loaded.files;
+  const m = loaded.model;
+  const e = loaded.case.estimate ?? {};
+  const refMass = density(m.ambient.pressure, m.ambient.temperature) * sweptVolume(m.engine);
+  const assumptions = {
+    ...(e.airFuelRatio !== undefined ? { airFuelRatio: e.airFuelRatio } : {}),
+    ...(e.fuelHeatingValue !== undefined ? { fuelHeatingValue: e.fuelHeatingValue } : {}),
+    ...(e.brakeEfficiency !== undefined ? { brakeEfficiency: e.brakeEfficiency } : {}),
+  };
+  const out: SessionMeasured = {
+    ...(f.trace ? { trace: { byDegree: f.trace.byDegree, sensorAt: f.trace.sensorAt, file: f.trace.log.file } } : {}),
+    ...(f.intake.lift ? { lift: liftByDegree(f.intake.lift.log) } : {}),
+    ...(f.dyno
+      ? {
+          dyno: {
+            file: f.dyno.file,
+            points: f.dyno.points.flatMap((p) => {
+              const eta = dynoAsEta(p, refMass, assumptions);
+              return eta === undefined ? [] : [{ rpm: p.rpm, eta }];
+            }),
+          },
+        }
+      : {}),
+  };
+  return Object.keys(out).length > 0 ? out : undefined;
 }
 
 /** A value in model units → the display unit `unitWord` ('' = as is), by the case loader's unit table. */
@@ -94,10 +138,11 @@ export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: R
     'inlet.snorkel.diameter': snorkel?.diameterStart,
     'exhaust.pipe.length': exhaustPipe?.length,
     'exhaust.pipe.diameter': exhaustPipe?.diameterStart,
-    'intake.opens': c.intake.opens,
-    'intake.closes': c.intake.closes,
-    'exhaust.opens': c.exhaust.opens,
-    'exhaust.closes': c.exhaust.closes,
+    // a valve with a lift log takes its events from the log: not offered for editing
+    'intake.opens': c.intake.liftFile === undefined ? c.intake.opens : undefined,
+    'intake.closes': c.intake.liftFile === undefined ? c.intake.closes : undefined,
+    'exhaust.opens': c.exhaust.liftFile === undefined ? c.exhaust.opens : undefined,
+    'exhaust.closes': c.exhaust.liftFile === undefined ? c.exhaust.closes : undefined,
     'ambient.pressure': c.ambient.pressure,
     'ambient.temperature': c.ambient.temperature,
   };
@@ -180,6 +225,7 @@ export async function openCase(file: string, opts: OpenOptions = {}): Promise<Ca
     suggestSavePath: async () => suggestSavePath(file, fileExists, await saveDirFor(file)),
     exists: fileExists,
     save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),
+    measured: measuredOf(loaded),
     suggestReportPath: async () => suggestReportPath(file, fileExists, await saveDirFor(file)),
     report: async (edits, path, overwrite) => {
       const edited = buildCase(structuredClone(raw), file, { set: setsOf(edits) });

@@ -26,6 +26,8 @@ export const GLYPH = {
   baseline: '·',
   /** a second quantity drawn beside the current line (the exhaust-port pressure) */
   second: '∘',
+  /** measured data beside the model (a pressure trace, a lift log, dyno points) */
+  measured: '•',
   /** the horizontal reference (ambient pressure, zero flow) */
   reference: '┈',
   /** the cursor column */
@@ -46,8 +48,8 @@ export const LINE_GLYPHS: ReadonlySet<string> = new Set([
 export interface ChartSeries {
   /** samples, one per x step (crank degree for crank charts) */
   values: ArrayLike<number>;
-  /** 'line' for the current result, 'dots' for a baseline, 'second' for a second quantity of the current result */
-  style: 'line' | 'dots' | 'second';
+  /** 'line' for the current result, 'dots' for a baseline, 'second' for a second quantity of the current result, 'measured' for measured data */
+  style: 'line' | 'dots' | 'second' | 'measured';
 }
 
 export interface ChartFrame {
@@ -179,7 +181,7 @@ export function plotBins(
     for (let r = 0; r < H; r++) setCell(grid, r, opts.cursorColumn, GLYPH.cursor);
   }
   // baselines first, then second quantities, so the current line is drawn on top
-  const rank = { dots: 0, second: 1, line: 2 } as const;
+  const rank = { dots: 0, second: 1, measured: 1, line: 2 } as const;
   const ordered = [...series].sort((a, b) => rank[a.style] - rank[b.style]);
   for (const s of ordered) {
     let prevRow: number | undefined;
@@ -203,7 +205,7 @@ export function plotBins(
         continue;
       }
       if (s.style !== 'line') {
-        const g = s.style === 'dots' ? GLYPH.baseline : GLYPH.second;
+        const g = s.style === 'dots' ? GLYPH.baseline : s.style === 'measured' ? GLYPH.measured : GLYPH.second;
         for (let r = lo; r <= hi; r++) if (!LINE_GLYPHS.has(grid[r]?.[c] ?? '')) setCell(grid, r, c, g);
         prevRow = lastRow;
         continue;

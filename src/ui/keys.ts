@@ -61,6 +61,7 @@ export const HELP: readonly HelpGroup[] = [
     entries: [
       { keys: 'p', what: 'pin as baseline' },
       { keys: 't', what: 'teaching line' },
+      { keys: 'm', what: 'measured data on/off' },
     ],
   },
   {
@@ -175,6 +176,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'speed', by: -RPM_STEP };
     case 't':
       return { type: 'toggleTeach' };
+    case 'm':
+      return { type: 'toggleMeasured' };
     case 'z':
       return { type: 'zoom', dir: 1 };
     case 'Z':

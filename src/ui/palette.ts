@@ -22,6 +22,8 @@ export const CHART_PALETTE: Palette = {
   [GLYPH.upOut]: 'cyan',
   [GLYPH.baseline]: 'magenta',
   [GLYPH.second]: 'green',
+  [GLYPH.measured]: 'redBright',
+  '●': 'redBright',
   [GLYPH.reference]: 'gray',
   [GLYPH.cursor]: 'yellow',
   [GLYPH.band]: 'blue',

@@ -15,7 +15,8 @@ import { access, link, open, readFile, rename, unlink } from 'node:fs/promises';
 import { inspectTarget } from '../case/target.js';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import YAML from 'yaml';
-import { parseCase, parseSetValue, readCaseText } from '../case/index.js';
+import { parseCase, parseSetValue, parseYamlText, readCaseText } from '../case/index.js';
+import { movedFileKeys } from '../case/measured-files.js';
 import type { Edit } from './state.js';
 
 export class FileExistsError extends Error {
@@ -142,7 +143,9 @@ export async function saveEditedCase(
   const full = resolve(opts.cwd ?? process.cwd(), target);
   if (resolve(sourceFile) === full && !opts.overwrite) throw new FileExistsError(full);
   const original = await readCaseText(sourceFile);
-  const text = editedCaseText(original, edits, basename(sourceFile));
+  // files the case names (lift logs, sheets) are relative to it: keep them found from the new place
+  const moved = movedFileKeys(parseYamlText(original, sourceFile), sourceFile, full).map((m) => ({ path: m.path.join('.'), value: JSON.stringify(m.value) }));
+  const text = editedCaseText(original, [...edits, ...moved], basename(sourceFile));
   parseCase(text, full); // throws CaseError if it would not load
   // never over a device, a folder or a pipe (nor a link to one), even when replacing is confirmed
   const where = inspectTarget(full);

@@ -52,6 +52,8 @@ export interface PointShown {
   upstream: 'ambient' | 'plenum';
   /** the field values it was run with (display units); set by the reducer */
   values?: Record<string, number> | undefined;
+  /** the case's measured pressure trace against this result (analysis/trace-compare.ts) */
+  traceCheck?: { model: ArrayLike<number>; verdict: string } | undefined;
 }
 
 export interface SweepCurve {
@@ -81,6 +83,8 @@ export interface UiState {
   pipeIndex: number;
   help: boolean;
   teach: boolean;
+  /** draw the case's measured data beside the model (m) */
+  measured: boolean;
   quit: boolean;
 
   /** overrides applied on top of the case file, in order */
@@ -131,6 +135,7 @@ export type Action =
   | { type: 'toggleHelp' }
   | { type: 'closeHelp' }
   | { type: 'toggleTeach' }
+  | { type: 'toggleMeasured' }
   | { type: 'zoom'; dir: 1 | -1 }
   | { type: 'pipe'; by: number }
   | { type: 'pinBaseline' }
@@ -183,6 +188,7 @@ export function initialState(o: InitOptions): UiState {
     pipeIndex: 0,
     help: false,
     teach: o.teach ?? true,
+    measured: true,
     quit: false,
     edits: [],
     goodEdits: [],
@@ -344,6 +350,8 @@ export function reduce(s: UiState, a: Action): UiState {
       return { ...s, help: false };
     case 'toggleTeach':
       return { ...s, teach: !s.teach };
+    case 'toggleMeasured':
+      return { ...s, measured: !s.measured, message: { text: s.measured ? 'Measured data hidden (m shows them).' : 'Measured data shown beside the model.', tone: 'info' } };
     case 'zoom':
       return { ...s, zoomIndex: Math.min(ZOOMS.length - 1, Math.max(0, s.zoomIndex + a.dir)) };
     case 'pipe': {

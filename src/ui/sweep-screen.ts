@@ -30,7 +30,12 @@ export interface SweepScreenInput {
   status: 'idle' | 'running' | 'done' | 'stopped' | 'failed';
   /** the sweep is older than the latest change to the case */
   stale: boolean;
+  /** dyno points on the ηv scale (the case's `measured` sheet), drawn as ● */
+  measured?: { points: readonly { rpm: number; eta: number }[]; label: string } | undefined;
 }
+
+/** the glyph of a measured dyno point */
+export const DYNO_GLYPH = '●';
 
 export const SWEEP_GUTTER = 7;
 
@@ -136,8 +141,9 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const series: ChartSeries[] = [];
   if (beforeCols) series.push({ values: beforeCols, style: 'dots' });
   series.push({ values: nowCols, style: 'line' });
+  const dyno = (i.measured?.points ?? []).filter((p) => p.rpm >= lo && p.rpm <= hi && Number.isFinite(p.eta));
   const range = valueRange(
-    series.map((s) => s.values),
+    [...series.map((s) => s.values), dyno.map((p) => p.eta)],
     { minSpan: 0.05, pad: 0.05 },
   );
   const shade = Array.from({ length: cols }, (_, c) => {
@@ -159,6 +165,14 @@ export function sweepScreen(i: SweepScreenInput): string[] {
     const r = Math.min(height - 1, Math.max(0, Math.floor(((range.max - p.y) / (range.max - range.min)) * height)));
     const line = chart[r];
     if (line !== undefined && c >= 0) chart[r] = line.slice(0, g + c) + '×' + line.slice(g + c + 1);
+  }
+
+  // dyno points as ●
+  for (const p of dyno) {
+    const c = columnOfRpm(p.rpm, lo, hi, cols);
+    const r = Math.min(height - 1, Math.max(0, Math.floor(((range.max - p.eta) / (range.max - range.min)) * height)));
+    const line = chart[r];
+    if (line !== undefined && c >= 0) chart[r] = line.slice(0, g + c) + DYNO_GLYPH + line.slice(g + c + 1);
   }
 
   const step = rpmTickStep(lo, hi, Math.floor(cols / 7));
@@ -194,9 +208,9 @@ export function sweepScreen(i: SweepScreenInput): string[] {
         : i.status === 'failed'
           ? `The sweep failed after ${s.done} of ${s.total} points`
           : `${s.total} points${s.unconverged > 0 ? `, ${s.unconverged} not converged (×)` : ''}${i.stale ? ' · the case has changed since: s runs it again' : ''}`;
-  const legend = b
-    ? `${GLYPH.flat} now: ${i.now.label}  ${GLYPH.baseline} baseline: ${i.before?.label ?? ''}`
-    : `${GLYPH.flat} ${i.now.label}`;
+  const legend =
+    (b ? `${GLYPH.flat} now: ${i.now.label}  ${GLYPH.baseline} baseline: ${i.before?.label ?? ''}` : `${GLYPH.flat} ${i.now.label}`) +
+    (i.measured && i.measured.points.length > 0 ? `  ${DYNO_GLYPH} ${i.measured.label}` : '');
   const line3 = firstFit([`${progress}   ${legend}`, progress], w);
   const title = firstFit(
     [

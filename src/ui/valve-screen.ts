@@ -35,6 +35,17 @@ export interface ValveScreenInput {
   verdict?: string | undefined;
   /** what the valve sees when it opens (shown when there is room) */
   openingNote?: string | undefined;
+  /** measured data drawn beside the model (the m key turns it on and off) */
+  measured?: ValveMeasured | undefined;
+}
+
+export interface ValveMeasured {
+  /** a runner pressure trace: measured and the model's at the sensor [Pa] per degree, sensor distance from the valve [m] */
+  trace?: { pressure: ArrayLike<number>; model: ArrayLike<number>; sensorAt: number } | undefined;
+  /** the logged valve lift [m] per degree (NaN off the log): drawn in place of the cylinder mass */
+  lift?: ArrayLike<number> | undefined;
+  /** whether the measured pulse agrees with the model's, in words */
+  verdict?: string | undefined;
 }
 
 export const VALVE_GUTTER = 7;
@@ -58,7 +69,10 @@ function label1(v: number): string {
 export function valveScreen(i: ValveScreenInput): string[] {
   const w = i.width;
   const noteRows = i.openingNote && i.rows >= 26 ? 1 : 0;
-  const fixed = 3 /* titles */ + 2 /* axis */ + 2 /* verdict */ + noteRows;
+  const trace = i.measured?.trace;
+  const liftLog = i.measured?.lift;
+  const measuredRows = i.measured?.verdict ? 1 : 0;
+  const fixed = 3 /* titles */ + 2 /* axis */ + 2 /* verdict */ + noteRows + measuredRows;
   const [hp, hf, hm] = valveChartRows(Math.max(4, i.rows - fixed));
   const g = VALVE_GUTTER;
   const series = (pick: (t: ValveTraces) => ArrayLike<number>, scale: number): ChartSeries[] => {
@@ -69,9 +83,11 @@ export function valveScreen(i: ValveScreenInput): string[] {
   };
   const common = { width: w, gutter: g, from: i.from, span: i.span, cursor: i.crank };
 
-  // pressure [kPa]
-  const pS = series((t) => t.valvePressure, 1e-3);
+  // pressure [kPa]: at the valve, or with a measured trace at its sensor, the model's and the measured
+  const atSensor = trace !== undefined && trace.sensorAt > 0;
+  const pS: ChartSeries[] = atSensor ? [{ values: scaled(trace.model, 1e-3), style: 'line' }] : series((t) => t.valvePressure, 1e-3);
   if (i.exhaustPort) pS.push({ values: scaled(i.exhaustPort, 1e-3), style: 'second' });
+  if (trace) pS.push({ values: scaled(trace.pressure, 1e-3), style: 'measured' });
   const pR = valueRange(
     pS.map((s) => s.values),
     { include: [i.reference / 1000], minSpan: 2, pad: 0.04 },
@@ -91,8 +107,8 @@ export function valveScreen(i: ValveScreenInput): string[] {
     { include: [0], minSpan: 1, pad: 0.04 },
   );
   const fLines = crankChart(fS, { ...common, height: hf, yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
-  // mass [mg]
-  const mS = series((t) => t.cylinderMass, 1e6);
+  // mass [mg], or with a lift log the valve lift [mm], the model's and the logged
+  const mS = liftLog ? [{ values: scaled(i.now.lift, 1e3), style: 'line' as const }, { values: scaled(liftLog, 1e3), style: 'measured' as const }] : series((t) => t.cylinderMass, 1e6);
   const mR = valueRange(
     mS.map((s) => s.values),
     { minSpan: 1 },
@@ -100,19 +116,24 @@ export function valveScreen(i: ValveScreenInput): string[] {
   const mLines = crankChart(mS, { ...common, height: hm, yMin: mR.min, yMax: mR.max, formatY: label1 });
 
   const c = i.crank;
-  const p = at(i.now.valvePressure, c);
+  const p = atSensor ? at(trace.model, c) : at(i.now.valvePressure, c);
   const legend =
-    `${GLYPH.flat} now ` +
-    (i.before ? `${GLYPH.baseline} baseline ` : '') +
+    `${GLYPH.flat} ${trace ? 'model' : 'now'} ` +
+    (i.before && !atSensor ? `${GLYPH.baseline} baseline ` : '') +
     (i.exhaustPort ? `${GLYPH.second} exh. port ` : '') +
+    (trace ? `${GLYPH.measured} measured ` : '') +
     `${GLYPH.reference} ambient`;
   const port = i.exhaustPort ? at(i.exhaustPort, c) : undefined;
   const portText = port !== undefined ? `, exhaust port ${kpaSigned(port - i.reference)}` : '';
+  const where = atSensor ? `${Math.round(trace.sensorAt * 1000)} mm from the valve` : 'at the valve';
+  const meas = trace ? at(trace.pressure, c) : undefined;
+  const measText = meas !== undefined ? `, measured ${kpa(meas)} kPa` : '';
   const pTitle = titleWithLegend(
     [
-      `Pressure at the valve  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient${portText})`,
-      `Pressure at the valve  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient)`,
-      `Valve pressure ${kpa(p)} kPa (${kpaSigned(p - i.reference)})`,
+      `Pressure ${where}  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient${measText}${portText})`,
+      `Pressure ${where}  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient${measText})`,
+      `Pressure ${where} ${kpa(p)} kPa${measText}`,
+      `p ${kpa(p)} kPa${meas !== undefined ? ` (meas. ${kpa(meas)})` : ''}`,
       `p ${kpa(p)} kPa`,
     ],
     legend,
@@ -130,13 +151,18 @@ export function valveScreen(i: ValveScreenInput): string[] {
     w,
   );
   const mass = at(i.now.cylinderMass, c);
-  const mTitle = firstFit([`Gas in the cylinder  ${mg(mass)} mg`, `Cylinder ${mg(mass)} mg`], w);
+  const logged = liftLog ? at(liftLog, c) : Number.NaN;
+  const loggedText = Number.isFinite(logged) ? `${mm(logged)} mm` : 'off the log';
+  const mTitle = liftLog
+    ? titleWithLegend([`Valve lift  ${mm(lift)} mm (lift log ${loggedText})`, `Lift ${mm(lift)} mm (log ${loggedText})`], `${GLYPH.flat} model ${GLYPH.measured} lift log`, w)
+    : firstFit([`Gas in the cylinder  ${mg(mass)} mg`, `Cylinder ${mg(mass)} mg`], w);
   const axis = crankAxis(cycleMarks(i.events), common);
   const verdict = i.verdict
     ? wrapWords(`At IVC: ${i.verdict}.`, w, 2)
     : [fit('At IVC: (no pulse timing for this point)', w)];
   while (verdict.length < 2) verdict.push(fit('', w));
   if (noteRows > 0) verdict.push(...wrapWords(`At IVO: ${i.openingNote ?? ''}.`, w, 1));
+  if (measuredRows > 0) verdict.push(...wrapWords(`Measured: ${i.measured?.verdict ?? ''}.`, w, 1));
 
   const lines = [pTitle, ...pLines, fTitle, ...fLines, mTitle, ...mLines, ...axis, ...verdict];
   return padLines(lines, i.rows, w);

@@ -50,3 +50,16 @@ describe('result plausibility', () => {
     expect(w[1]).toMatch(/^A: residual gas above 50\.0 % at 100 rpm: /);
   });
 });
+
+describe('a boosted supply raises the ηv limit by its density ratio', () => {
+  it('ηv 2.5 on the ambient density is implausible unboosted, plausible from a 2-bar supply', async () => {
+    const { maxVolumetricEfficiency } = await import('../../src/analysis/plausibility.js');
+    const ambient = { pressure: 101325, temperature: 293.15 };
+    expect(maxVolumetricEfficiency({ ambient, inlet: { kind: 'ambient' } })).toBe(2);
+    const boosted = { ambient, inlet: { kind: 'plenum' as const, volume: 3e-3, feedDiameter: 0.04, feedCd: 0.8, supply: { pressure: 202650, temperature: 293.15 } } };
+    // the same temperature: density ratio 2 → limit 4
+    expect(maxVolumetricEfficiency(boosted)).toBeCloseTo(4, 9);
+    expect(resultProblems({ volumetricEfficiency: 2.5, residualFraction: 0.05 }, maxVolumetricEfficiency(boosted))).toEqual([]);
+    expect(resultProblems({ volumetricEfficiency: 2.5, residualFraction: 0.05 })).toEqual(['huge-ve']);
+  });
+});

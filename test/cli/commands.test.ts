@@ -13,6 +13,7 @@ const RUN_FIELDS = [
   'rpm', 'converged', 'cycles', 'volumetricEfficiency', 'deliveredMass', 'inletMass', 'massImbalance', 'trappedMass',
   'ivcPressure', 'residualFraction', 'valvePressureAtIvo', 'valvePressureAtIvc', 'peakReverseFlow', 'events', 'pulse', 'stats', 'trace',
   'warnings',
+  'volumetricEfficiencyBasis',
 ];
 
 describe('run --json on the demo (DESIGN §3)', async () => {

@@ -14,6 +14,8 @@ import { card, cc, cm2, deg, fix, hz, kPa, mm, row, rpm, wrap } from '../format.
 import type { LoadedCase } from '../../case/load.js';
 import { effectiveCard, wrap720 } from '../../case/to-model.js';
 import { eventLines } from '../run-output.js';
+import { measuredFileLines } from '../measured-output.js';
+import { density } from '../../core/gas.js';
 
 const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION, ALLOW_EXTREME_OPTION];
 
@@ -54,8 +56,13 @@ export function checkReport(loaded: LoadedCase): string {
         (m.inlet.snorkel ? `fed by a snorkel ${mm(totalLength(m.inlet.snorkel.sections), 0)} long` : `feed ${mm(m.inlet.feedDiameter ?? 0)}, Cd ${m.inlet.feedCd}`),
     );
   else s += row('inlet', 'open to the ambient air');
+  if (c.ambient.altitude !== undefined)
+    s += row('ambient', `${kPa(m.ambient.pressure, 2)}, ${fix(m.ambient.temperature, 1)} K at ${fix(c.ambient.altitude, 0)} m (U.S. Standard Atmosphere 1976 for what the case does not state)`);
+  if (m.inlet.kind === 'plenum' && m.inlet.supply)
+    s += row('boost supply', `${kPa(m.inlet.supply.pressure)}, ${fix(m.inlet.supply.temperature, 0)} K feeds the plenum (density ${fix(density(m.inlet.supply.pressure, m.inlet.supply.temperature), 3)} kg/m³; ηv stays on the ambient density)`);
 
   s += partsReport(m);
+  s += measuredFileLines(loaded.files, m, { intake: c.intake.checkingLift, exhaust: c.exhaust.checkingLift });
   s += `\nhand estimates: rules of thumb, not the simulation (a = ${fix(a, 1)} m/s at ${fix(m.ambient.temperature - 273.15, 1)} °C)\n`;
   s += row('quarter-wave frequency', `${hz(est.quarterWaveFrequency)} = a/(4(L+δ)), δ = ${END_CORRECTION.unflanged}·r = ${mm(est.endCorrection)}`);
   s += row('wave order at case speed', `${fix((est.quarterWaveFrequency * 120) / m.rpm, 2)}  (f₁·120/N at ${rpm(m.rpm)})`);
@@ -71,7 +78,8 @@ export function checkReport(loaded: LoadedCase): string {
   s += row('wave round trip 12·N·L/a', `${deg((12 * m.rpm * L) / a, 1)} of crank at ${rpm(m.rpm)}  (2L/a = ${fix(((2 * L) / a) * 1000, 2)} ms)`);
 
   s += '\nevents, card as given\n';
-  const note = (v: { checkingLift?: number | undefined }) => (v.checkingLift !== undefined ? ` at ${mm(v.checkingLift, 2)}` : ', zero lift');
+  const note = (v: { checkingLift?: number | undefined; liftFile?: string | undefined }) =>
+    (v.checkingLift !== undefined ? ` at ${mm(v.checkingLift, 2)}` : ', zero lift') + (v.liftFile !== undefined ? ' (from the lift log)' : '');
   s += row('intake', `opens ${card(c.intake.opens, 'BTDC', 'ATDC', 1)}, closes ${card(c.intake.closes, 'ABDC', 'BBDC', 1)}${note(c.intake)}`);
   s += row('exhaust', `opens ${card(c.exhaust.opens, 'BBDC', 'ABDC', 1)}, closes ${card(c.exhaust.closes, 'ATDC', 'BTDC', 1)}${note(c.exhaust)}`);
   for (const [side, v, o, cl] of [['intake', c.intake, ['BTDC', 'ATDC'], ['ABDC', 'BBDC']], ['exhaust', c.exhaust, ['BBDC', 'ABDC'], ['ATDC', 'BTDC']]] as const) {

@@ -14,6 +14,8 @@ import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Co
 import { combinedCost, engineCost } from '../../analysis/cost.js';
 import { fix, table } from '../format.js';
 import { writeFileAtomic } from '../write-file.js';
+import { chartPoints, dynoBlockTwo, dynoJsonTwo, outputChart } from '../dyno-output.js';
+import { dynoOf, MEASURED_OPTION } from '../measured-options.js';
 import {
   assumptionsOf,
   BAND_OPTION,
@@ -37,6 +39,7 @@ const OPTIONS: OptionSpec[] = [
   BAND_OPTION,
   { ...SET_OPTION, description: 'override a value in both cases, e.g. --set numerics.meshSize=5mm (repeatable)' },
   JOBS_OPTION,
+  { ...MEASURED_OPTION, description: "a dyno sheet (CSV: rpm and torque_Nm, torque_lbft, power_kW, power_hp or ve_pct) shown beside both (default: A's measured key)" },
   { name: 'json', type: 'boolean', description: 'print both curves and the differences as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed with both curves to FILE' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
@@ -75,7 +78,9 @@ ${optionHelp(OPTIONS)}
 
 --json prints: a {name, file, points [...], band {...}, bestRpm}, b {...},
 band {from, to}, difference [{rpm, difference}] (B − A, fraction),
-wins [{winner, from, to, largestDifference}], stats {jobs, wallSeconds}.
+wins [{winner, from, to, largestDifference}], stats {jobs, wallSeconds}; with a
+dyno sheet also measured [{rpm, torque?, power?, volumetricEfficiency?,
+a {model, difference}, b {model, difference}}] and measuredFile.
 
 examples
   tractwave compare cases/demo.yaml cases/airbox-single.yaml
@@ -88,6 +93,7 @@ examples
     const jobs = parseJobs(args);
     const a = await loadForSweep(fileA!, args, io);
     const b = await loadForSweep(fileB!, args, io);
+    const dyno = await dynoOf(args, a, io.cwd);
     const grid = sweepGrid(args, a.case);
     const band = chooseBand(args, a.case, grid);
     {
@@ -127,8 +133,8 @@ examples
     const ea = pa.map((p) => p.volumetricEfficiency);
     const eb = pb.map((p) => p.volumetricEfficiency);
     const spans = winningSpans(rpms, ea, eb);
-    for (const w of sweepWarnings(pa, a.model.numerics.maxCycles, 'A')) io.stderr.write(`${w}\n`);
-    for (const w of sweepWarnings(pb, b.model.numerics.maxCycles, 'B')) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(pa, a.model.numerics.maxCycles, 'A', a.model)) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(pb, b.model.numerics.maxCycles, 'B', b.model)) io.stderr.write(`${w}\n`);
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
     if (b.case.band && (b.case.band.from !== band.from || b.case.band.to !== band.to) && band.source !== 'option')
       io.stderr.write(`note: B's own band ${b.case.band.from}–${b.case.band.to} rpm is not used; both are judged over A's band (set --band to choose)\n`);
@@ -149,6 +155,7 @@ examples
         difference: rpms.map((rpm, i) => ({ rpm, difference: (eb[i] ?? Number.NaN) - (ea[i] ?? Number.NaN) })),
         wins: spans,
         stats: { jobs, wallSeconds },
+        ...(dyno ? { measured: dynoJsonTwo(pa, pb, dyno), measuredFile: dyno.file } : {}),
       };
       io.stdout.write(`${JSON.stringify(json)}\n`);
       return 0;
@@ -170,9 +177,15 @@ examples
       `  B (dots ·): ${b.model.name} [${printable(fileB!)}]`,
       `    ${networkLine(b.model)}`,
       '',
-      'volumetric efficiency ηv [%] against speed',
+      `volumetric efficiency ηv [%] against speed${dyno?.kinds.includes('volumetricEfficiency') ? ` (● measured, ${dyno.file})` : ''}`,
     ];
-    out.push(...curveChart(rpms, [{ values: ea.map((v) => v * 100) }, { values: eb.map((v) => v * 100) }], { band }));
+    out.push(
+      ...curveChart(rpms, [{ values: ea.map((v) => v * 100) }, { values: eb.map((v) => v * 100) }], {
+        band,
+        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency') } : {}),
+      }),
+    );
+    if (dyno) out.push(...outputChart(rpms, [pa, pb], dyno, { band }));
     out.push('');
     io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n');
     const rows = rpms.map((rpm, i) => {
@@ -182,6 +195,7 @@ examples
       return [fix(rpm, 0), fix(x * 100, 1), fix(y * 100, 1), signed((y - x) * 100, 1), w === 'even' ? '=' : w];
     });
     io.stdout.write(table(['rpm', 'A ηv %', 'B ηv %', 'B−A pts', 'better'], rows));
+    if (dyno) io.stdout.write(dynoBlockTwo(pa, pb, dyno));
     const ma = sa.band.meanVolumetricEfficiency;
     const mb = sb.band.meanVolumetricEfficiency;
     const lead = winnerAt(ma, mb);

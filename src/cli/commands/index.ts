@@ -12,5 +12,7 @@ import { tuneCommand } from './tune.js';
 import { compareCommand } from './compare.js';
 import { mergeCommand } from './merge.js';
 import { reportCommand } from './report.js';
+import { flowCommand } from './flow.js';
+import { calibrateCommand } from './calibrate.js';
 
-export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, mergeCommand, compareCommand, reportCommand];
+export const commands: readonly Command[] = [runCommand, checkCommand, pipeCommand, sweepCommand, tuneCommand, mergeCommand, compareCommand, reportCommand, flowCommand, calibrateCommand];

@@ -9,6 +9,9 @@ import { engineCost } from '../../analysis/cost.js';
 import { cycleProgress } from '../progress.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
 import { checkOutputFile, writeFileAtomic } from '../write-file.js';
+import { compareTrace } from '../../analysis/trace-compare.js';
+import { supplyBasis, traceJson, traceLines } from '../measured-output.js';
+import { traceOf } from '../measured-options.js';
 import { checkTarget } from '../target.js';
 
 const OPTIONS: OptionSpec[] = [
@@ -18,6 +21,9 @@ const OPTIONS: OptionSpec[] = [
   { name: 'csv', type: 'string', value: 'FILE', description: 'write the per-degree trace of the converged cycle to FILE' },
   { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of valve pressure, valve flow and cylinder mass against crank angle to FILE (SVG)' },
   { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
+  { name: 'measured-trace', type: 'string', value: 'FILE', description: "a runner pressure trace (CSV: crank_deg, pressure_kPa or pressure_kPa_gauge) to compare with the model (default: the case's measuredTrace)" },
+  { name: 'sensor-at', type: 'string', value: 'D', description: "the transducer's distance from the valve along the runner, e.g. 80mm (default: at the valve)" },
+  { name: 'tdc-offset', type: 'string', value: 'DEG', description: "added to the trace's crank angles to give θ (default 0)" },
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
 ];
@@ -58,7 +64,19 @@ examples
   tractwave run cases/demo.yaml
   tractwave run cases/demo.yaml --rpm 8000 --set runner.length=320mm
   tractwave run cases/demo.yaml --csv demo-trace.csv
+  tractwave run cases/measured-single.yaml --sensor-at 80mm \\
+      --measured-trace cases/measured/trace.csv
   tractwave run cases/demo.yaml --svg demo-valve.svg
+
+--measured-trace FILE compares a measured runner pressure trace with the
+model's pressure at the sensor (the runner's space–time map, --sensor-at from
+the valve): the last compression peak before IVC (crank angle and rise), the
+closed-valve ringing frequency, the pressure at IVO and IVC and the RMS
+difference; --json adds measuredTrace {lastPeakBeforeIvc {model, measured,
+lateBy}, ringingFrequency {model, measured}, atIvo, atIvc, rms, agrees,
+verdict, ...}. A gauge trace is made absolute with the case's ambient pressure.
+With inlet.supply (boost) --json adds supplyVolumetricEfficiency; ηv itself is
+always on the ambient density (volumetricEfficiencyBasis).
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
@@ -72,6 +90,7 @@ examples
       checkTarget(svg, '--svg', io, args.flag('force'));
     }
     const loaded = await loadCaseFromArgs(file!, args, io);
+    const measured = await traceOf(args, loaded, io.cwd);
     // a file that may not be written is refused before the run, not after it
     if (csv !== undefined) await checkOutputFile(csv, { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     const cost = engineCost(loaded.model);
@@ -86,21 +105,29 @@ examples
     }
     const wallSeconds = (performance.now() - t0) / 1000;
     const pulse = pulseTiming(result, loaded.model);
-    const warnings = runWarnings(result, loaded.model.numerics.maxCycles);
+    const warnings = runWarnings(result, loaded.model.numerics.maxCycles, loaded.model);
     for (const w of warnings) io.stderr.write(`${w}\n`);
+    const cmp = measured ? compareTrace(result, loaded.model, measured.byDegree, measured.sensorAt) : undefined;
     if (svg !== undefined) {
       const { renderSvg, units, valveChart } = await import('../../report/index.js');
       const chart = valveChart({ rpm: result.rpm, reason: 'asked', result, pulse }, units('metric'), pulse.referencePressure);
       await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
     }
     if (args.flag('json')) {
-      io.stdout.write(`${JSON.stringify(runJson(result, pulse, wallSeconds, loaded.model, warnings))}\n`);
+      const json = {
+        ...runJson(result, pulse, wallSeconds, loaded.model, warnings),
+        ...supplyBasis(result, loaded.model).json,
+        ...(cmp && measured ? { measuredTrace: traceJson(cmp, measured) } : {}),
+      };
+      io.stdout.write(`${JSON.stringify(json)}\n`);
       return 0;
     }
     if (csv !== undefined) {
       await writeFileAtomic(csv, traceCsv(result, loaded.model), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     }
     io.stdout.write(runSummary(loaded, result, pulse, wallSeconds));
+    io.stdout.write(supplyBasis(result, loaded.model).text);
+    if (cmp && measured) io.stdout.write(traceLines(cmp, measured, result));
     if (csv !== undefined) io.stdout.write(`\nwrote the trace (${result.trace.crank.length} rows, one per crank degree) to ${csv}\n`);
     if (svg !== undefined) io.stdout.write(`${csv === undefined ? '\n' : ''}wrote the valve chart to ${svg}\n`);
     return 0;

@@ -8,6 +8,7 @@
 import { networkLine } from '../../analysis/network-line.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
 import { curveWarnings } from '../../analysis/plausibility.js';
+import type { EngineModel } from '../../core/model.js';
 import { engineCost } from '../../analysis/cost.js';
 import { resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
@@ -24,6 +25,8 @@ import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Co
 import { fix, table, wrap } from '../format.js';
 import type { CliIo } from '../io.js';
 import { writeFileAtomic } from '../write-file.js';
+import { chartPoints, dynoBlock, dynoJson, outputChart } from '../dyno-output.js';
+import { dynoOf, MEASURED_OPTION } from '../measured-options.js';
 import { checkTarget } from '../target.js';
 import { timeLeft } from '../progress.js';
 
@@ -165,6 +168,7 @@ export function sweepWarnings(
   points: readonly (Pick<SweepPoint, 'rpm' | 'converged' | 'massImbalance' | 'volumetricEfficiency'> & Partial<Pick<SweepPoint, 'residualFraction'>>)[],
   maxCycles: number,
   label = '',
+  model?: Pick<EngineModel, 'inlet' | 'ambient'>,
 ): string[] {
   const out: string[] = [];
   const bad = points.filter((p) => !p.converged);
@@ -180,7 +184,7 @@ export function sweepWarnings(
       `warning: ${who}mass balance off by more than ${MASS_IMBALANCE_LIMIT * 100} % at ${leaky.map((p) => fix(p.rpm, 0)).join(', ')} rpm ` +
         '(a finer numerics.meshSize or the conservative scheme helps)',
     );
-  for (const w of curveWarnings(points, label)) out.push(`warning: ${w}`);
+  for (const w of curveWarnings(points, label, model)) out.push(`warning: ${w}`);
   return out;
 }
 
@@ -209,7 +213,12 @@ export interface ChartMarks {
   band?: { from: number; to: number };
   /** tuned speeds: label (the order) at a speed */
   tuned?: readonly { label: string; rpm: number }[];
+  /** measured points (same unit as the series), drawn as MEASURED_GLYPH at their speeds */
+  points?: readonly { rpm: number; value: number }[];
 }
+
+/** the glyph of a measured point on a speed chart */
+export const MEASURED_GLYPH = '●';
 
 /**
  * ηv against speed as text lines (asciichart). One series: a line. Two: the
@@ -220,7 +229,8 @@ export function curveChart(rpms: readonly number[], series: readonly ChartSeries
   const lo = rpms[0]!;
   const hi = rpms[rpms.length - 1]!;
   const width = rpms.length > 1 ? CHART_WIDTH : 1;
-  const all = series.flatMap((s) => s.values).filter(Number.isFinite);
+  const shownPoints = (marks.points ?? []).filter((p) => Number.isFinite(p.value) && p.rpm >= lo && p.rpm <= hi);
+  const all = [...series.flatMap((s) => s.values), ...shownPoints.map((p) => p.value)].filter(Number.isFinite);
   let min = Math.min(...all);
   let max = Math.max(...all);
   if (!(max > min)) {
@@ -243,6 +253,22 @@ export function curveChart(rpms: readonly number[], series: readonly ChartSeries
   const axisAt = Math.max(0, [...(base[0] ?? '')].findIndex((ch) => ch === '┤' || ch === '┼'));
   const x0 = axisAt + 1;
   const col = (rpm: number): number => x0 + (hi > lo ? Math.round(((rpm - lo) / (hi - lo)) * (width - 1)) : 0);
+  // measured points, on asciichart's own rows: rows − (round(v·ratio) − round(min·ratio))
+  if (shownPoints.length > 0) {
+    const ratio = CHART_HEIGHT / (max - min);
+    const min2 = Math.round(min * ratio);
+    const rowsN = Math.abs(Math.round(max * ratio) - min2);
+    for (const p of shownPoints) {
+      const r = rowsN - (Math.round(p.value * ratio) - min2);
+      const line = lines[r];
+      if (line === undefined) continue;
+      const chars = [...line];
+      const c = col(p.rpm);
+      while (chars.length <= c) chars.push(' ');
+      chars[c] = MEASURED_GLYPH;
+      lines[r] = chars.join('');
+    }
+  }
   const blank = (): string[] => new Array<string>(x0 + width + 12).fill(' ');
   const put = (row: string[], at: number, text: string): void => {
     for (let k = 0; k < text.length; k++) row[at + k] = text[k]!;
@@ -421,6 +447,7 @@ const OPTIONS: OptionSpec[] = [
   BAND_OPTION,
   SET_OPTION,
   JOBS_OPTION,
+  MEASURED_OPTION,
   { name: 'json', type: 'boolean', description: 'print the result as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed to FILE (header row with units)' },
   { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of ηv against speed (band, mean, best speed, tuned speeds) to FILE (SVG)' },
@@ -439,6 +466,9 @@ export interface SweepJson {
   estimates: CaseEstimates;
   assumptions: OutputAssumptions & { note: string };
   stats: { jobs: number; chunkPoints: number; wallSeconds: number };
+  /** with a dyno sheet: each measured point with the model at its speed */
+  measured?: ReturnType<typeof dynoJson>;
+  measuredFile?: string;
 }
 
 export const sweepCommand: Command = {
@@ -477,12 +507,18 @@ ${optionHelp(OPTIONS)}
 torque [N·m], power [W], converged, massImbalance, cycles, deliveredMass,
 trappedMass, residualFraction, ivcPressure, peakReverseFlow, pulse {...}}],
 band {from, to, meanVolumetricEfficiency}, bestRpm, bestVolumetricEfficiency,
-estimates {...}, assumptions {...}, stats {jobs, chunkPoints, wallSeconds}.
+estimates {...}, assumptions {...}, stats {jobs, chunkPoints, wallSeconds};
+with a dyno sheet also measured [{rpm, torque?, power?, volumetricEfficiency?,
+model {...}, difference {...}}] (model − measured, SI) and measuredFile.
+
+--measured FILE (or the case's measured key) draws a dyno sheet's points (●)
+on the charts and lists them against the model at the measured speeds.
 
 examples
   tractwave sweep cases/demo.yaml
   tractwave sweep cases/demo.yaml --rpm 4000:9000:500 --set runner.length=320mm
   tractwave sweep cases/demo.yaml --csv demo-sweep.csv
+  tractwave sweep cases/measured-single.yaml --measured cases/measured/dyno.csv
   tractwave sweep cases/demo.yaml --svg demo-sweep.svg
 `,
   async run(argv, io) {
@@ -496,6 +532,7 @@ examples
     }
     const jobs = parseJobs(args);
     const loaded = await loadForSweep(file!, args, io);
+    const dyno = await dynoOf(args, loaded, io.cwd);
     const grid = sweepGrid(args, loaded.case);
     const band = chooseBand(args, loaded.case, grid);
     checkCost(engineCost(loaded.model, grid.values, jobs), loaded.model, args, '--rpm');
@@ -511,7 +548,7 @@ examples
     const wallSeconds = (performance.now() - t0) / 1000;
     const summary = summariseSweep(points, band);
     const estimates = caseEstimates(loaded.model, grid.values[0]!, grid.values[grid.values.length - 1]!);
-    for (const w of sweepWarnings(points, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(points, loaded.model.numerics.maxCycles, '', loaded.model)) io.stderr.write(`${w}\n`);
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
     if (svg !== undefined) {
       const { renderSvg, speedVeChart } = await import('../../report/index.js');
@@ -530,6 +567,7 @@ examples
         estimates,
         assumptions: { ...assumptions, note: 'torque and power are estimates from ηv with these assumptions, not simulated' },
         stats: { jobs: Math.min(jobs, Math.ceil(points.length / SWEEP_CHUNK_POINTS)), chunkPoints: SWEEP_CHUNK_POINTS, wallSeconds },
+        ...(dyno ? { measured: dynoJson(points, dyno), measuredFile: dyno.file } : {}),
       };
       io.stdout.write(`${JSON.stringify(json)}\n`);
       return 0;
@@ -542,14 +580,16 @@ examples
         ` (${points.length} points, ${jobs} job${jobs === 1 ? '' : 's'}, ${fix(wallSeconds, 1)} s)`,
       `  ${networkLine(loaded.model)}`,
       '',
-      'volumetric efficiency ηv [%] against speed',
+      `volumetric efficiency ηv [%] against speed${dyno?.kinds.includes('volumetricEfficiency') ? ` (● measured, ${dyno.file})` : ''}`,
     );
     out.push(
       ...curveChart(grid.values, [{ values: points.map((p) => p.volumetricEfficiency * 100) }], {
         band,
         tuned: estimates.tunedSpeeds.map((t) => ({ label: String(t.order), rpm: t.rpm })),
+        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency') } : {}),
       }),
     );
+    if (dyno) out.push(...outputChart(grid.values, [points], dyno, { band }));
     out.push('');
     out.push(
       `band ${fix(band.from, 0)}–${fix(band.to, 0)} rpm: mean ηv ${fix(summary.band.meanVolumetricEfficiency * 100, 1)} %` +
@@ -564,6 +604,9 @@ examples
     io.stdout.write(table(POINT_HEADER, pointRows(points)));
     io.stdout.write('\n' + wrapLine(POINT_LEGEND) + '\n');
     io.stdout.write(wrapLine(`* ${assumptionLine(assumptions)}`) + '\n');
+    const supply = loaded.model.inlet.kind === 'plenum' ? loaded.model.inlet.supply : undefined;
+    if (supply) io.stdout.write(wrapLine(`ηv is on the ambient density; the plenum is fed from a boost supply at ${fix(supply.pressure / 1000, 1)} kPa, ${fix(supply.temperature, 0)} K (run gives ηv on the supply density too)`) + '\n');
+    if (dyno) io.stdout.write(dynoBlock(points, dyno));
     io.stdout.write('results are estimates from a simplified model: verify them on an engine.\n');
     if (csv !== undefined) io.stdout.write(`wrote ${points.length} rows (one per speed) to ${csv}\n`);
     if (svg !== undefined) io.stdout.write(`wrote the chart of ηv against speed to ${svg}\n`);

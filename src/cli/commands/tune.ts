@@ -479,7 +479,7 @@ async function writeReport(
 ): Promise<number> {
   const { axes, grid, band } = plan;
   const maxCycles = plan.base.model.numerics.maxCycles;
-  for (const r of csvOrder) for (const w of sweepWarnings(r.ranked.points, maxCycles, r.label)) io.stderr.write(`${w}\n`);
+  for (const r of csvOrder) for (const w of sweepWarnings(r.ranked.points, maxCycles, r.label, plan.base.model)) io.stderr.write(`${w}\n`);
   if (band.note) io.stderr.write(`note: ${band.note}\n`);
   const best = rows[0];
   if (best) for (const w of edgeWarnings(axes, edges, best.typed, extras.ends)) io.stderr.write(`${w}\n`);

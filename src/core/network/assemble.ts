@@ -3,6 +3,7 @@
  * the names of the parts the crank-angle stepper reads.
  *
  *   ambient ─(feed orifice | snorkel pipe)→ plenum ─(open)→ runner … ─(intake valve)→ cylinder
+ *   supply  ─(feed orifice | snorkel pipe)→ plenum …   (boost: inlet.supply instead of the ambient)
  *   cylinder ─(exhaust valve)→ exhaust reservoir            (no exhaust pipe)
  *   cylinder ─(exhaust valve)→ exhaust pipe ─(open)→ back-pressure reservoir
  *   runner piece ─┬─ runner piece        a junction at each resonator, with
@@ -81,7 +82,9 @@ export function assembleEngine(model: EngineModel): EngineAssembly {
   const connectors: ConnectorSpec[] = [];
   const side: EngineAssembly['side'] = [];
   const runnerWall = { friction: runner.friction, heatTransfer: runner.heatTransfer, wallTemperature: runner.wallTemperature };
-  const fresh = { pressure: ambient.pressure, temperature: ambient.temperature };
+  // fresh air: the ambient's, or with boost the supply's (the runner, the box and its pipes start there)
+  const supply = model.inlet.kind === 'plenum' ? model.inlet.supply : undefined;
+  const fresh = supply ? { pressure: supply.pressure, temperature: supply.temperature } : { pressure: ambient.pressure, temperature: ambient.temperature };
   const wallOf = (p: PipeModel) => ({ friction: p.friction, heatTransfer: p.heatTransfer, wallTemperature: p.wallTemperature });
 
   volumes.push({ kind: 'reservoir', name: 'ambient', pressure: ambient.pressure, temperature: ambient.temperature, burned: 0 });
@@ -124,18 +127,21 @@ export function assembleEngine(model: EngineModel): EngineAssembly {
   if (inlet.kind === 'plenum') {
     plenum = 'plenum';
     upstream = plenum;
+    // boost: the feed draws from a supply reservoir instead of the ambient
+    const feedFrom = supply ? 'supply' : 'ambient';
+    if (supply) volumes.push({ kind: 'reservoir', name: feedFrom, ...fresh, burned: 0 });
     volumes.push({ kind: 'chamber', name: plenum, volume: inlet.volume, ...fresh });
     if (inlet.snorkel) {
       const s = inlet.snorkel;
       const d0 = s.sections[0]!.diameterStart;
       const d1 = s.sections[s.sections.length - 1]!.diameterEnd;
       pipes.push({ name: 'snorkel', sections: s.sections, wall: wallOf(s), extend: { left: endCorrection('unflanged', d0), right: endCorrection('unflanged', d1) }, nativeBurned: 0, initial: fresh });
-      feed.push({ kind: 'open', name: 'snorkel mouth', end: { pipe: 'snorkel', side: 'left' }, volume: 'ambient', entryLoss: s.entryLoss });
+      feed.push({ kind: 'open', name: 'snorkel mouth', end: { pipe: 'snorkel', side: 'left' }, volume: feedFrom, entryLoss: s.entryLoss });
       feed.push({ kind: 'open', name: 'snorkel into the box', end: { pipe: 'snorkel', side: 'right' }, volume: plenum, entryLoss: 0 });
       side.push({ name: 'snorkel', role: 'snorkel', start: 'ambient end', end: 'airbox' });
     } else {
       const d = inlet.feedDiameter ?? 0;
-      feed.push({ kind: 'orifice', name: 'plenum feed', from: 'ambient', to: plenum, area: { kind: 'fixed', area: inlet.feedCd * (Math.PI / 4) * d ** 2 } });
+      feed.push({ kind: 'orifice', name: 'plenum feed', from: feedFrom, to: plenum, area: { kind: 'fixed', area: inlet.feedCd * (Math.PI / 4) * d ** 2 } });
     }
   }
   connectors.push({ kind: 'open', name: 'runner inlet', end: { pipe: first, side: 'left' }, volume: upstream, entryLoss: runner.entryLoss });
