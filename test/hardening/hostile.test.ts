@@ -150,3 +150,17 @@ describe('the report command keeps the same guards', () => {
     expectRefused(await tractwave(['report', DEMO, '--out', 'never.html', '--set', 'ambient.pressure=1Pa']), 'ambient.pressure', '--allow-extreme');
   });
 });
+
+describe('the terminal view keeps the same guards on an edit', () => {
+  it('an edit whose point would take over a minute is refused naming the field; with --allow-long it is built', async () => {
+    const { openCase } = await import('../../src/ui/case-session.js');
+    const { join } = await import('node:path');
+    const file = join(ROOT, DEMO);
+    const session = await openCase(file);
+    expect(() => session.build([{ path: 'numerics.meshSize', value: '0.1 mm' }])).toThrow(/a point would take about .*--allow-long/);
+    expect(() => session.build([{ path: 'ambient.pressure', value: '1 Pa' }])).toThrow(/--allow-extreme/);
+    const long = await openCase(file, { allowLong: true, allowExtreme: true });
+    expect(long.build([{ path: 'numerics.meshSize', value: '0.1 mm' }]).numerics.meshSize).toBeCloseTo(1e-4, 12);
+    expect(long.build([{ path: 'ambient.pressure', value: '1 Pa' }]).ambient.pressure).toBe(1);
+  });
+});
