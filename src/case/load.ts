@@ -23,6 +23,8 @@ import {
   type PipeCase,
 } from './schema.js';
 import { closest } from './suggest.js';
+import { plausibilityIssues } from './plausibility.js';
+import { printable } from './printable.js';
 import { toEngineModel, toPipeModel } from './to-model.js';
 import { attachCaseFiles, prepareLiftLogs, type CaseFiles } from './measured-files.js';
 
@@ -43,6 +45,8 @@ export interface LoadOptions {
   rpm?: number;
   /** directory a relative file name is read from (messages keep the name as given) */
   cwd?: string;
+  /** accept values outside the working ranges of plausibility.ts (--allow-extreme) */
+  allowExtreme?: boolean;
 }
 
 export interface LoadedCase {
@@ -96,10 +100,19 @@ function where(file: string, lines: YAML.LineCounter, offset: number | undefined
 export function parseYamlText(text: string, file = ''): Record<string, unknown> {
   if (text.length > MAX_CASE_BYTES) throw new CaseError(file || 'case', `text is larger than ${MAX_CASE_BYTES} bytes (1 MB)`, 'file');
   const lines = new YAML.LineCounter();
-  const doc = YAML.parseDocument(text, { ...YAML_OPTIONS, lineCounter: lines });
+  const tooDeep = `nested more than ${MAX_DEPTH} levels deep (a case file is a few levels deep)`;
+  let doc: YAML.Document.Parsed;
+  try {
+    doc = YAML.parseDocument(text, { ...YAML_OPTIONS, lineCounter: lines });
+  } catch (e) {
+    if (e instanceof RangeError) throw new CaseError(file || 'case', tooDeep, 'yaml');
+    throw new CaseError(file || 'case', `malformed YAML: ${(e as Error).message}`, 'yaml');
+  }
   const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
   if (problem) {
     const first = problem.message.split('\n')[0]!.replace(/ at line \d+, column \d+:?$/, '');
+    // the parser's own stack ran out: the text nests far deeper than any case
+    if (/call stack/i.test(first)) throw new CaseError(where(file, lines, problem.pos[0]), tooDeep, 'yaml');
     const msg = problem.code === 'TAG_RESOLVE_FAILED' ? `${first} (case files are plain data: no custom tags)` : first;
     throw new CaseError(where(file, lines, problem.pos[0]), `malformed YAML: ${msg}`, 'yaml');
   }
@@ -107,40 +120,66 @@ export function parseYamlText(text: string, file = ''): Record<string, unknown> 
   try {
     data = doc.toJS({ maxAliasCount: MAX_ALIASES });
   } catch (e) {
+    if (e instanceof RangeError) throw new CaseError(file || 'case', tooDeep, 'yaml');
     throw new CaseError(file || 'case', `malformed YAML: ${(e as Error).message}`, 'yaml');
   }
+  checkDepth(data, file || 'case');
   if (data === null || data === undefined) throw new CaseError(file || 'case', 'the file is empty', 'yaml');
   if (typeof data !== 'object' || Array.isArray(data))
     throw new CaseError(file || 'case', `the file must be a mapping of keys (name, engine, ...), got ${Array.isArray(data) ? 'a list' : typeof data}`, 'yaml');
   return data as Record<string, unknown>;
 }
 
-/** The object at `segs` inside raw data, if there is one. */
+/** The object at `segs` inside raw data, if there is one (own keys only). */
 function valueAt(data: unknown, segs: readonly string[]): Record<string, unknown> | undefined {
   let d: unknown = data;
-  for (const k of segs) d = d !== null && typeof d === 'object' ? (d as Record<string, unknown>)[k] : undefined;
+  for (const k of segs) d = d !== null && typeof d === 'object' && Object.hasOwn(d, k) ? (d as Record<string, unknown>)[k] : undefined;
   return d !== null && typeof d === 'object' ? (d as Record<string, unknown>) : undefined;
+}
+
+/** a value typed on the command line, shortened for a one-line message */
+function clip(text: string, max = 60): string {
+  return text.length <= max ? text : `${text.slice(0, max - 1)}…`;
 }
 
 /** Parse one "--set" value as a YAML scalar (or flow value): "320mm", "0.32", "plenum", "true". */
 export function parseSetValue(text: string, path: string): unknown {
-  const doc = YAML.parseDocument(text, YAML_OPTIONS);
-  const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
-  if (problem) throw new CaseError(path, `--set value '${text}' is not a valid YAML value`, 'option');
-  const v: unknown = doc.toJS({ maxAliasCount: MAX_ALIASES });
+  let v: unknown;
+  try {
+    const doc = YAML.parseDocument(text, YAML_OPTIONS);
+    const problem = doc.errors[0] ?? doc.warnings.find((w) => w.code === 'TAG_RESOLVE_FAILED');
+    if (problem && /call stack/i.test(problem.message)) throw new CaseError(path, `--set value '${clip(text)}' is nested too deeply`, 'option');
+    if (problem) throw new CaseError(path, `--set value '${clip(text)}' is not a valid YAML value`, 'option');
+    v = doc.toJS({ maxAliasCount: MAX_ALIASES });
+  } catch (e) {
+    if (e instanceof CaseError) throw e;
+    if (e instanceof RangeError) throw new CaseError(path, `--set value '${clip(text)}' is nested too deeply`, 'option');
+    throw new CaseError(path, `--set value '${clip(text)}' is not a valid YAML value`, 'option');
+  }
+  checkDepth(v, path);
   return v === null ? undefined : v;
 }
 
 type Schema = typeof caseSchema | typeof pipeCaseSchema;
 
-/** Apply "path=value" overrides to raw data (in place), checking each path against the schema. */
+function entries(n: number): string {
+  return `${n} entr${n === 1 ? 'y' : 'ies'}`;
+}
+
+/**
+ * Apply "path=value" overrides to raw data (in place), checking each path
+ * against the schema. A list index may name an entry that exists or the one
+ * just past the end (which adds it); anything further is refused before any
+ * list is built (`sections.99999999` would otherwise build a list of that
+ * length). A null value removes the key (or the list entry).
+ */
 export function applySets(data: Record<string, unknown>, sets: readonly string[], schema: Schema = caseSchema): void {
   for (const s of sets) {
     const eq = s.indexOf('=');
-    if (eq <= 0) throw new CaseError('--set', `expected path=value (e.g. runner.length=320mm), got '${s}'`, 'option');
+    if (eq <= 0) throw new CaseError('--set', `expected path=value (e.g. runner.length=320mm), got '${clip(s)}'`, 'option');
     const path = s.slice(0, eq).trim();
     const segs = path.split('.');
-    if (segs.some((x) => x === '')) throw new CaseError('--set', `bad path '${path}'`, 'option');
+    if (segs.some((x) => x === '')) throw new CaseError('--set', `bad path '${clip(path)}'`, 'option');
     const r = resolvePath(schema, segs, data);
     if (!r.ok) {
       const prefix = segs.slice(0, r.at).join('.');
@@ -150,27 +189,61 @@ export function applySets(data: Record<string, unknown>, sets: readonly string[]
         const what = typeof kind === 'string' ? `${prefix}.kind is '${kind}'` : `this case's ${prefix || 'file'}`;
         throw new CaseError(path, `does not apply while ${what}: set ${prefix ? `${prefix}.` : ''}kind too, before it`, 'unknown-key');
       }
+      const at = segs.slice(0, r.at + 1).join('.');
+      const parent = r.known.length === 0 && r.at > 0 ? resolvePath(schema, segs.slice(0, r.at), data) : undefined;
+      if (parent?.ok && parent.node.kind === 'list')
+        throw new CaseError(at, `${prefix} is a list: expected an entry number (0, 1, ...), got '${clip(segs[r.at]!)}'`, 'unknown-key');
+      if (parent?.ok && parent.node.kind === 'value') throw new CaseError(at, `${prefix} is set as a whole: it has no keys below it`, 'unknown-key');
       const guess = closest(segs[r.at]!, r.known);
       const full = guess === undefined ? '' : ` (did you mean '${prefix ? `${prefix}.` : ''}${guess}'?)`;
-      throw new CaseError(path, `unknown key in --set${full}`, 'unknown-key');
+      throw new CaseError(path, `unknown key${full}`, 'unknown-key');
     }
     const value = parseSetValue(s.slice(eq + 1).trim(), path);
-    if (r.node.kind === 'object' && (value === null || typeof value !== 'object'))
+    if (r.node.kind === 'object' && value !== undefined && (value === null || typeof value !== 'object'))
       throw new CaseError(path, `is a group of keys (${r.node.keys.join(', ')}); set one of them, e.g. ${path}.${r.node.keys[0] ?? 'x'}=...`, 'option');
-    let cur: Record<string, unknown> = data;
-    for (let i = 0; i < segs.length - 1; i++) {
+    let cur: Record<string, unknown> | unknown[] = data;
+    for (let i = 0; i < segs.length; i++) {
       const k = segs[i]!;
-      let next = cur[k];
+      const here = segs.slice(0, i + 1).join('.');
+      if (Array.isArray(cur)) {
+        const index = Number(k);
+        if (!(index <= cur.length))
+          throw new CaseError(
+            here,
+            `no entry ${clip(k, 20)}: ${segs.slice(0, i).join('.')} has ${entries(cur.length)}` +
+              `${cur.length > 0 ? ` (0 to ${cur.length - 1})` : ''}; ${cur.length} adds one at the end`,
+            'option',
+          );
+      }
+      const box = cur as Record<string, unknown>;
+      if (i === segs.length - 1) {
+        if (value !== undefined) box[k] = value;
+        else if (Array.isArray(cur)) cur.splice(Number(k), 1);
+        else delete box[k];
+        break;
+      }
+      let next = Object.hasOwn(box, k) ? box[k] : undefined;
       if (next === undefined || next === null) {
         next = /^\d+$/.test(segs[i + 1]!) ? [] : {};
-        cur[k] = next;
+        box[k] = next;
       }
-      if (typeof next !== 'object') throw new CaseError(segs.slice(0, i + 1).join('.'), `is a single value in the case, cannot set ${path}`, 'option');
-      cur = next as Record<string, unknown>;
+      if (typeof next !== 'object') throw new CaseError(here, `is a single value in the case, cannot set ${path}`, 'option');
+      cur = next as Record<string, unknown> | unknown[];
     }
-    const last = segs[segs.length - 1]!;
-    if (value === undefined) delete cur[last];
-    else cur[last] = value;
+  }
+}
+
+/** the deepest nesting a case file has: a few levels; far more is a mistake or an attack */
+export const MAX_DEPTH = 32;
+
+/** Refuse data nested deeper than MAX_DEPTH (iterative: no recursion to overflow). */
+function checkDepth(data: unknown, where: string): void {
+  const stack: [unknown, number][] = [[data, 0]];
+  while (stack.length > 0) {
+    const [v, depth] = stack.pop()!;
+    if (v === null || typeof v !== 'object' || v instanceof Uint8Array) continue;
+    if (depth >= MAX_DEPTH) throw new CaseError(where, `nested more than ${MAX_DEPTH} levels deep (a case file is a few levels deep)`, 'yaml');
+    for (const x of Object.values(v)) stack.push([x, depth + 1]);
   }
 }
 
@@ -197,8 +270,15 @@ export function buildCase(raw: Record<string, unknown>, file = '', opts: LoadOpt
   const lifts = prepareLiftLogs(data, file, opts.cwd);
   const v = validateCase(lifts.data);
   if (!v.ok) throw firstIssue(v.issues);
+  if (!opts.allowExtreme) {
+    const p = plausibilityIssues(v.value)[0];
+    if (p) throw new CaseError(p.path, `${p.message}; add --allow-extreme to run it anyway`, 'invalid');
+  }
   const { case: c, files } = attachCaseFiles(v.value, lifts.logs, file, opts.cwd);
-  return { file, data, case: c, model: toEngineModel(c, fileStem(file)), files };
+  const model = toEngineModel(c, fileStem(file));
+  // a name is shown on terminals: escape sequences and NUL in it are shown escaped, never sent
+  model.name = printable(model.name);
+  return { file, data, case: c, model, files };
 }
 
 export function buildPipeCase(raw: Record<string, unknown>, file = '', opts: Pick<LoadOptions, 'set'> = {}): LoadedPipeCase {
@@ -208,7 +288,9 @@ export function buildPipeCase(raw: Record<string, unknown>, file = '', opts: Pic
   applySets(data, opts.set ?? [], pipeCaseSchema);
   const v = validatePipeCase(data);
   if (!v.ok) throw firstIssue(v.issues);
-  return { file, data, case: v.value, model: toPipeModel(v.value, fileStem(file)) };
+  const model = toPipeModel(v.value, fileStem(file));
+  model.name = printable(model.name);
+  return { file, data, case: v.value, model };
 }
 
 export function parseCase(text: string, file = '', opts: LoadOptions = {}): LoadedCase {

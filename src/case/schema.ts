@@ -28,6 +28,29 @@ export const ENGINE_SIZE_LIMIT = 0.5;
 /** engine speeds a case may ask for [rpm]: below 100 a cycle takes seconds to simulate, above 100000 nothing is an engine */
 export const RPM_LIMITS = { min: 100, max: 100000 } as const;
 
+/**
+ * The one check of an engine speed against RPM_LIMITS, used by the case's
+ * rpm, sweep and band keys, --rpm of every command (a speed or a range) and
+ * the terminal view's speed keys. Returns what is wrong, or undefined.
+ */
+export function speedProblem(rpm: number): string | undefined {
+  if (rpm >= RPM_LIMITS.min && rpm <= RPM_LIMITS.max) return undefined;
+  return `must be between ${RPM_LIMITS.min} and ${RPM_LIMITS.max} rpm, got ${shown(rpm)} rpm`;
+}
+
+/** A value as a message shows it: numbers as written (Infinity, NaN), strings quoted, else its kind. */
+export function shown(v: unknown): string {
+  if (v === undefined) return 'nothing';
+  if (v === null) return 'null';
+  if (typeof v === 'number') return Number.isInteger(v) || !Number.isFinite(v) ? String(v) : String(Number(v.toPrecision(6)));
+  if (typeof v === 'string') return JSON.stringify(v);
+  if (typeof v === 'boolean') return String(v);
+  if (v instanceof Uint8Array) return 'binary data (a !!binary value)';
+  if (Array.isArray(v)) return 'a list';
+  if (typeof v === 'object') return 'a mapping';
+  return typeof v;
+}
+
 export const SCHEMES: readonly SchemeName[] = ['characteristics', 'conservative'];
 
 /** Named entry-loss coefficients accepted for runner.entryLoss. */
@@ -89,7 +112,7 @@ function count(min: number) {
       return z.NEVER;
     }
     if (typeof v !== 'number' || !Number.isInteger(v) || v < min) {
-      ctx.addIssue({ code: 'custom', message: `expected a whole number ≥ ${min}, got ${JSON.stringify(v)}` });
+      ctx.addIssue({ code: 'custom', message: `expected a whole number ≥ ${min}, got ${shown(v)}` });
       return z.NEVER;
     }
     return v;
@@ -99,7 +122,7 @@ function count(min: number) {
 function bool() {
   return z.unknown().transform((v, ctx): boolean => {
     if (typeof v !== 'boolean') {
-      ctx.addIssue({ code: 'custom', message: `expected true or false, got ${JSON.stringify(v)}` });
+      ctx.addIssue({ code: 'custom', message: `expected true or false, got ${shown(v)}` });
       return z.NEVER;
     }
     return v;
@@ -109,7 +132,7 @@ function bool() {
 function oneOf<T extends string>(values: readonly T[]) {
   return z.unknown().transform((v, ctx): T => {
     if (typeof v !== 'string' || !values.includes(v as T)) {
-      const got = v === undefined ? 'nothing' : JSON.stringify(v);
+      const got = shown(v);
       const hint = typeof v === 'string' ? didYouMean(v, values) : '';
       ctx.addIssue({ code: 'custom', message: `expected one of ${values.map((s) => `'${s}'`).join(', ')}, got ${got}${hint}` });
       return z.NEVER;
@@ -231,11 +254,11 @@ const sectionSchema = z.strictObject({
 });
 
 const entryLoss = z.unknown().transform((v, ctx): number => {
-  if (typeof v === 'string' && v in ENTRY_LOSS) return ENTRY_LOSS[v]!;
+  if (typeof v === 'string' && Object.hasOwn(ENTRY_LOSS, v)) return ENTRY_LOSS[v]!;
   if (typeof v === 'number' && Number.isFinite(v) && v >= 0) return v;
   ctx.addIssue({
     code: 'custom',
-    message: `expected a loss coefficient ≥ 0 or one of ${Object.keys(ENTRY_LOSS).map((s) => `'${s}'`).join(', ')}, got ${JSON.stringify(v)}`,
+    message: `expected a loss coefficient ≥ 0 or one of ${Object.keys(ENTRY_LOSS).map((s) => `'${s}'`).join(', ')}, got ${shown(v)}`,
   });
   return z.NEVER;
 });
@@ -485,8 +508,22 @@ export const caseSchema = z
       if (v.checkingLift !== undefined && !(v.checkingLift < v.maxLift))
         issue([side, 'checkingLift'], `must be below maxLift (${mm(v.maxLift)}), got ${mm(v.checkingLift)}`);
     }
-    if (!(c.rpm >= RPM_LIMITS.min && c.rpm <= RPM_LIMITS.max))
-      issue(['rpm'], `must be between ${RPM_LIMITS.min} and ${RPM_LIMITS.max} rpm, got ${c.rpm} rpm`);
+    // the heads cannot cover more than the bore under any roof shape (the --allow-extreme rule of about 60 % is in plausibility.ts)
+    const heads = c.intake.valves * c.intake.diameter ** 2 + c.exhaust.valves * c.exhaust.diameter ** 2;
+    if (c.intake.diameter < e.bore && c.exhaust.diameter < e.bore && !(heads < e.bore ** 2)) {
+      const side = c.intake.valves * c.intake.diameter ** 2 >= c.exhaust.valves * c.exhaust.diameter ** 2 ? 'intake' : 'exhaust';
+      issue([side, c[side].valves > 1 ? 'valves' : 'diameter'],
+        `the valve heads (${c.intake.valves} × ${mm(c.intake.diameter)} intake, ${c.exhaust.valves} × ${mm(c.exhaust.diameter)} exhaust) ` +
+          `cover ${Number(((100 * heads) / e.bore ** 2).toPrecision(3))} % of the bore area: they cannot fit in a ${mm(e.bore)} bore`);
+    }
+    const rpmIssue = speedProblem(c.rpm);
+    if (rpmIssue) issue(['rpm'], rpmIssue);
+    for (const key of ['sweep', 'band'] as const)
+      for (const end of ['from', 'to'] as const) {
+        const v = c[key]?.[end];
+        const p = v === undefined ? undefined : speedProblem(v);
+        if (p) issue([key, end], p);
+      }
     const n = c.numerics;
     if (!(n.courant > 0 && n.courant <= 1)) issue(['numerics', 'courant'], `must be in (0, 1], got ${n.courant}`);
     const L = c.runner.sections.reduce((s, x) => s + x.length, 0);
@@ -596,7 +633,7 @@ export function formatPath(path: readonly PropertyKey[]): string {
 function valueAt(data: unknown, path: readonly PropertyKey[]): unknown {
   let cur: unknown = data;
   for (const k of path) {
-    if (cur === null || typeof cur !== 'object') return undefined;
+    if (cur === null || typeof cur !== 'object' || !Object.hasOwn(cur, k)) return undefined;
     cur = (cur as Record<PropertyKey, unknown>)[k as string];
   }
   return cur;
@@ -698,7 +735,7 @@ function objectOptions(s: AnySchema, data: unknown): Record<string, AnySchema>[]
   if (d.type === 'union' && d.options) {
     const all = d.options.flatMap((o) => objectOptions(o, undefined));
     // a discriminated union: prefer the option matching the data's kind
-    const kind = data !== null && typeof data === 'object' ? (data as Record<string, unknown>).kind : undefined;
+    const kind = data !== null && typeof data === 'object' && Object.hasOwn(data, 'kind') ? (data as Record<string, unknown>).kind : undefined;
     if (kind !== undefined) {
       const match = all.filter((shape) => {
         const k = shape.kind;
@@ -737,10 +774,11 @@ export function resolvePath(
       continue;
     }
     const options = objectOptions(s, d);
-    const next = options.map((o) => o[key]).find((x) => x !== undefined);
+    // own keys only: 'constructor', 'toString', '__proto__' ... are not keys of a case
+    const next = options.map((o) => (Object.hasOwn(o, key) ? o[key] : undefined)).find((x) => x !== undefined);
     if (!next) return { ok: false, at: i, known: [...new Set(options.flatMap((o) => Object.keys(o)))] };
     s = next;
-    d = d !== null && typeof d === 'object' ? (d as Record<string, unknown>)[key] : undefined;
+    d = d !== null && typeof d === 'object' && Object.hasOwn(d, key) ? (d as Record<string, unknown>)[key] : undefined;
   }
   const u = unwrap(s);
   const t = defOf(u).type;

@@ -130,6 +130,7 @@ const NUMBER_UNIT = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(\S*)\s*$
 
 function describe(value: unknown): string {
   if (value === null) return 'null';
+  if (value instanceof Uint8Array) return 'binary data (a !!binary value)';
   if (Array.isArray(value)) return 'a list';
   if (typeof value === 'object') return 'a mapping';
   if (typeof value === 'string') return `'${value}'`;

@@ -12,7 +12,9 @@ import type { OptionSpec, ParsedArgs } from './args.js';
 import { CaseError } from '../case/errors.js';
 import { loadCase, type LoadedCase } from '../case/load.js';
 import { parseQuantity } from '../case/units.js';
-import { RPM_LIMITS } from '../case/schema.js';
+import { speedProblem } from '../case/schema.js';
+import { costCulprit, costProblem, type CostEstimate } from '../analysis/cost.js';
+import type { EngineModel } from '../core/model.js';
 
 export interface Command {
   name: string;
@@ -37,18 +39,40 @@ export const RPM_OPTION: OptionSpec = {
   description: 'engine speed [rpm], overrides the case',
 };
 
+export const ALLOW_EXTREME_OPTION: OptionSpec = {
+  name: 'allow-extreme',
+  type: 'boolean',
+  description: 'accept pressures, temperatures and sizes outside the ranges engines meet (the results may mean nothing)',
+};
+
+export const ALLOW_LONG_OPTION: OptionSpec = {
+  name: 'allow-long',
+  type: 'boolean',
+  description: 'start even when the estimated run time is over the limit (15 min)',
+};
+
 /** Parse an --rpm value: "6500", "6500rpm" or "6500 rpm". */
 export function parseRpm(text: string, option = '--rpm'): number {
   const r = parseQuantity(text, 'speed');
   if (!r.ok) throw new CaseError(option, `expected a speed in rpm, got '${text}'`, 'option');
-  if (!(r.value >= RPM_LIMITS.min && r.value <= RPM_LIMITS.max))
-    throw new CaseError(option, `expected a speed between ${RPM_LIMITS.min} and ${RPM_LIMITS.max} rpm, got '${text}'`, 'option');
+  const problem = speedProblem(r.value);
+  if (problem) throw new CaseError(option, `${problem.replace(/^must be/, 'expected a speed')}`, 'option');
   return r.value;
 }
 
-/** Load the engine case named by a positional, with --set and --rpm applied. */
+/** Load the engine case named by a positional, with --set, --rpm and --allow-extreme applied. */
 export async function loadCaseFromArgs(file: string, args: ParsedArgs, io: CliIo): Promise<LoadedCase> {
   const rpmText = args.string('rpm');
   const rpm = rpmText === undefined ? undefined : parseRpm(rpmText);
-  return loadCase(file, { set: args.list('set'), cwd: io.cwd, ...(rpm !== undefined ? { rpm } : {}) });
+  return loadCase(file, { set: args.list('set'), cwd: io.cwd, allowExtreme: args.flag('allow-extreme'), ...(rpm !== undefined ? { rpm } : {}) });
+}
+
+/**
+ * Refuse a run whose estimated cost is over the limit, unless --allow-long
+ * (exit 2, naming the field that makes it long, or `fallback`).
+ */
+export function checkCost(cost: CostEstimate, model: Pick<EngineModel, 'numerics'>, args: ParsedArgs, fallback: string): void {
+  if (args.flag('allow-long')) return;
+  const problem = costProblem(cost);
+  if (problem) throw new CaseError(costCulprit(model, fallback), problem, 'option');
 }

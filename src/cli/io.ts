@@ -17,6 +17,8 @@ export interface CliIo {
   stderrIsTTY: boolean;
   /** working directory relative paths are resolved against */
   cwd: string;
+  /** the TERM environment variable ('dumb': no full-screen view) */
+  term?: string;
   /** environment variables a command may read (tune --shard auto); main.ts passes process.env */
   env?: Readonly<Record<string, string | undefined>>;
 }

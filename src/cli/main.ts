@@ -21,6 +21,8 @@ import type { CliIo } from './io.js';
 import { defaultCasePath, packageVersion } from './package-root.js';
 import { SAFETY_CAUTION } from './safety.js';
 import { wrap } from './format.js';
+import { errnoWords, OutputError } from './write-file.js';
+import { printable } from '../case/printable.js';
 
 export { type CliIo, memoryIo } from './io.js';
 
@@ -31,7 +33,8 @@ tract: a 1-D unsteady runner (conservative finite volumes by default, or the
 method of characteristics) coupled to the valves, the cylinder and a plenum
 
 usage
-  tractwave [CASE]               terminal view (default case: the bundled demo)
+  tractwave [CASE]               terminal view (default case: the bundled demo;
+                                 --allow-extreme, --allow-long as for run)
   tractwave <command> [options]  one of:
 
 ${commands.map((c) => `  ${c.name.padEnd(w)}${wrap(c.summary, 76 - w, '').trimEnd().split('\n').join(`\n${' '.repeat(w + 2)}`)}`).join('\n')}
@@ -54,16 +57,20 @@ ${SAFETY_CAUTION}
 /** Print an error as one line and give its exit code. */
 export function reportError(e: unknown, io: CliIo): number {
   if (e instanceof CaseError) {
-    io.stderr.write(`error: ${e.path ? `${e.path}: ` : ''}${e.detail}\n`);
+    io.stderr.write(`error: ${e.path ? `${printable(e.path)}: ` : ''}${printable(e.detail)}\n`);
     return 2;
   }
   if (e instanceof SimulationError) {
     // the core's message says what happened ("the solver diverged (...) at ...")
-    io.stderr.write(`error: ${e.code === 'diverged' ? '' : 'the simulation could not start: '}${e.message}\n`);
+    io.stderr.write(`error: ${e.code === 'diverged' ? '' : 'the simulation could not start: '}${printable(e.message)}\n`);
     return e.code === 'invalid' ? 2 : 1;
   }
+  if (e instanceof OutputError) {
+    io.stderr.write(`error: ${printable(e.path)}: ${printable(e.detail)}\n`);
+    return 1;
+  }
   const msg = e instanceof Error ? e.message : String(e);
-  io.stderr.write(`internal error: ${msg}\n`);
+  io.stderr.write(`internal error: ${printable(msg)}\n`);
   if (process.env.TRACTWAVE_DEBUG && e instanceof Error && e.stack) io.stderr.write(`${e.stack}\n`);
   else io.stderr.write('(set TRACTWAVE_DEBUG=1 to see where; please report it with the case file)\n');
   return 1;
@@ -77,22 +84,34 @@ function looksLikeCaseFile(arg: string): boolean {
   return /\.(ya?ml|json)$/i.test(arg) || arg.includes('/') || arg.includes('\\');
 }
 
-/** `tractwave [CASE]`: the interactive view. */
+/** options of the interactive view */
+const VIEW_FLAGS = ['--allow-extreme', '--allow-long'] as const;
+
+/** `tractwave [CASE] [--allow-extreme] [--allow-long]`: the interactive view. */
 async function interactive(argv: readonly string[], io: CliIo): Promise<number> {
-  if (argv.length > 1) throw new CaseError(argv[1]!, 'unexpected argument (usage: tractwave [CASE], or tractwave <command> ...; see --help)', 'option');
-  const given = argv[0];
+  const flags = new Set(argv.filter((a) => (VIEW_FLAGS as readonly string[]).includes(a)));
+  const rest = argv.filter((a) => !flags.has(a));
+  const unknown = rest.find((a) => a.startsWith('-') && a.length > 1);
+  if (unknown) throw new CaseError(unknown, `unknown option (the terminal view takes ${VIEW_FLAGS.join(' and ')}; see --help)`, 'option');
+  if (rest.length > 1) throw new CaseError(rest[1]!, 'unexpected argument (usage: tractwave [CASE], or tractwave <command> ...; see --help)', 'option');
+  const given = rest[0];
   const file = given ?? defaultCasePath();
-  await loadCase(file, { cwd: io.cwd }); // bad input: exit 2 before anything else
-  if (!(io.stdinIsTTY && io.stdoutIsTTY)) {
+  const options = { allowExtreme: flags.has('--allow-extreme'), allowLong: flags.has('--allow-long') };
+  await loadCase(file, { cwd: io.cwd, allowExtreme: options.allowExtreme }); // bad input: exit 2 before anything else
+  const dumb = io.term === 'dumb';
+  if (!(io.stdinIsTTY && io.stdoutIsTTY) || dumb) {
+    const why = dumb
+      ? 'a terminal that can move the cursor (TERM is dumb)'
+      : 'a terminal (stdin and stdout are not a TTY)';
     io.stderr.write(
-      'error: the interactive view needs a terminal (stdin and stdout are not a TTY); ' +
+      `error: the interactive view needs ${why}; ` +
         `use \`tractwave run ${given ?? 'CASE'}\` for one speed or \`tractwave sweep ${given ?? 'CASE'}\` for a speed range\n`,
     );
     return 2;
   }
   // imported here so that run, sweep and check never load Ink (start-up time)
   const { startUi } = await import('../ui/index.js');
-  return startUi(resolve(io.cwd, file));
+  return startUi(resolve(io.cwd, file), options);
 }
 
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
@@ -119,6 +138,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
       }
       return await cmd.run(rest, io);
     }
+    if ((VIEW_FLAGS as readonly string[]).includes(first)) return await interactive(argv, io);
     if (first.startsWith('-')) throw new CaseError(first, 'unknown option (see tractwave --help)', 'option');
     if (existsSync(resolve(io.cwd, first)) || looksLikeCaseFile(first)) return await interactive(argv, io);
     const guess = closest(first, commands.map((x) => x.name));
@@ -135,11 +155,19 @@ function hint(word: string): string {
 
 /** Bind runCli to the process. */
 export async function main(argv: readonly string[] = process.argv.slice(2)): Promise<void> {
-  // a closed pipe (tractwave run ... | head) is not an error
+  // a closed pipe (tractwave run ... | head) is not an error; any other write
+  // error of standard output (a full disk: run --json > /dev/full) is one plain line
   process.stdout.on('error', (e: NodeJS.ErrnoException) => {
     if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-    throw e;
+    try {
+      process.stderr.write(`error: standard output: cannot write: ${errnoWords(e)}\n`);
+    } catch {
+      // stderr is gone too: nothing more to say
+    }
+    process.exit(1);
   });
+  // a closed standard error is not worth a crash
+  process.stderr.on('error', () => {});
   const io: CliIo = {
     stdout: process.stdout,
     stderr: process.stderr,
@@ -147,6 +175,7 @@ export async function main(argv: readonly string[] = process.argv.slice(2)): Pro
     stdinIsTTY: process.stdin.isTTY === true,
     stderrIsTTY: process.stderr.isTTY === true,
     cwd: process.cwd(),
+    ...(process.env.TERM !== undefined ? { term: process.env.TERM } : {}),
     env: process.env,
   };
   process.exitCode = await runCli(argv, io);

@@ -2,7 +2,9 @@
  * Output of one simulated operating point: the JSON of `run` (DESIGN §3),
  * the per-degree CSV trace, and the text summary for a tuner.
  */
+import { printable } from '../case/printable.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
+import { maxVolumetricEfficiency, resultProblems, resultWarnings } from '../analysis/plausibility.js';
 import type { EngineModel, PointResult } from '../core/model.js';
 import { soundSpeed } from '../core/gas.js';
 import { feedInertance } from '../analysis/estimates.js';
@@ -46,9 +48,11 @@ export interface RunJson {
     /** with an exhaust pipe: pressure at its valve end */
     exhaustPortPressure?: number[];
   };
+  /** the warnings printed on stderr, without the "warning: " prefix */
+  warnings: string[];
 }
 
-export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number, model: EngineModel): RunJson {
+export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number, model: EngineModel, warnings: readonly string[] = []): RunJson {
   const t = r.trace;
   return {
     rpm: r.rpm,
@@ -77,6 +81,7 @@ export function runJson(r: PointResult, pulse: PulseTiming, wallSeconds: number,
       ...(model.inlet.kind === 'plenum' ? { plenumPressure: Array.from(t.plenumPressure) } : {}),
       ...(model.exhaust.pipe ? { exhaustPortPressure: Array.from(t.exhaustPortPressure) } : {}),
     },
+    warnings: warnings.map((w) => w.replace(/^warning: /, '')),
   };
 }
 
@@ -106,7 +111,7 @@ export function traceCsv(r: PointResult, model: EngineModel): string {
 }
 
 /** Warnings for stderr: non-convergence and a poor mass balance. */
-export function runWarnings(r: PointResult, maxCycles: number): string[] {
+export function runWarnings(r: PointResult, maxCycles: number, model?: Pick<EngineModel, 'inlet' | 'ambient'>): string[] {
   const w: string[] = [];
   if (!r.converged) {
     const h = r.history;
@@ -119,6 +124,7 @@ export function runWarnings(r: PointResult, maxCycles: number): string[] {
     w.push(
       `warning: mass imbalance ${pct(r.massImbalance, 2)} (runner inlet vs intake valve) is above ${pct(MASS_IMBALANCE_WARNING)}: try a smaller numerics.meshSize`,
     );
+  for (const x of resultWarnings(r, model)) w.push(`warning: ${x}`);
   return w;
 }
 
@@ -152,12 +158,13 @@ export function eventLines(events: PointResult['events']): string {
 export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTiming, wallSeconds: number): string {
   const m = loaded.model;
   let s = '';
-  s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${loaded.file})` : ''}\n`;
+  s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
   s += `  ${wrap(networkLine(m), 76, '    ')}`;
   s += r.converged
     ? `  periodic after ${r.cycles} cycles (tolerance ${m.numerics.tolerance})\n\n`
     : `  NOT converged after ${r.cycles} cycles: figures are from the last cycle run\n\n`;
-  s += row('volumetric efficiency', pct(r.volumetricEfficiency));
+  const implausible = resultProblems({ volumetricEfficiency: r.volumetricEfficiency, residualFraction: r.residualFraction }, maxVolumetricEfficiency(m)).length > 0;
+  s += row('volumetric efficiency', `${pct(r.volumetricEfficiency)}${implausible ? '  (NOT a breathing figure: see the warning)' : ''}`);
   s += row('delivered mass', `${mg(r.deliveredMass)} per cycle (through the intake valve)`);
   s += row('trapped mass at IVC', mg(r.trappedMass));
   s += row('residual gas', pct(r.residualFraction));

@@ -7,7 +7,9 @@
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { DEFAULT_OUTPUT_ASSUMPTIONS } from '../analysis/estimates.js';
 import type { EngineModel } from '../core/model.js';
-import { buildCase, loadCase, UNITS, type LoadedCase } from '../case/index.js';
+import { buildCase, CaseError, loadCase, UNITS, type LoadedCase } from '../case/index.js';
+import { printable } from '../case/printable.js';
+import { costBreakdown, costCulprit, duration, engineCost } from '../analysis/cost.js';
 import { liftByDegree } from '../case/lift-file.js';
 import { dynoAsEta } from '../analysis/dyno.js';
 import { density } from '../core/gas.js';
@@ -185,15 +187,41 @@ function setsOf(edits: readonly Edit[]): string[] {
   return edits.map((e) => `${e.path}=${e.value}`);
 }
 
-export async function openCase(file: string): Promise<CaseSession> {
-  const loaded = await loadCase(file);
+/**
+ * a point the view re-runs on an edit must come back while the user waits:
+ * an edit estimated above this is refused unless --allow-long [s]
+ */
+export const EDIT_COST_LIMIT_SECONDS = 60;
+
+export interface OpenOptions {
+  allowExtreme?: boolean;
+  allowLong?: boolean;
+}
+
+/** The model of the case with `edits`; throws CaseError for a bad value or a point that would take too long. */
+export function buildEdited(raw: Record<string, unknown>, file: string, edits: readonly Edit[], opts: OpenOptions = {}): EngineModel {
+  const model = buildCase(structuredClone(raw), file, { set: setsOf(edits), allowExtreme: opts.allowExtreme === true }).model;
+  if (!opts.allowLong) {
+    const cost = engineCost(model);
+    if (cost.seconds > EDIT_COST_LIMIT_SECONDS)
+      throw new CaseError(
+        costCulprit(model, 'rpm'),
+        `a point would take about ${duration(cost.seconds)} (${costBreakdown(cost)}); start the view with --allow-long to allow it`,
+      );
+  }
+  return model;
+}
+
+export async function openCase(file: string, opts: OpenOptions = {}): Promise<CaseSession> {
+  const loaded = await loadCase(file, { allowExtreme: opts.allowExtreme === true });
   const raw = structuredClone(loaded.data);
+  buildEdited(raw, file, [], opts); // the case as it is must be usable too
   return {
     file,
-    name: loaded.model.name || basename(file),
+    name: printable(loaded.model.name || basename(file)),
     ...fieldValues(loaded),
     sweepPlan: sweepPlanOf(loaded),
-    build: (edits) => buildCase(structuredClone(raw), file, { set: setsOf(edits) }).model,
+    build: (edits) => buildEdited(raw, file, edits, opts),
     suggestSavePath: async () => suggestSavePath(file, fileExists, await saveDirFor(file)),
     exists: fileExists,
     save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),

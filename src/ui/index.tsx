@@ -19,8 +19,18 @@ export { inlineEngine, threadEngine, type EngineService } from './engine-service
 const ENTER_ALT = '\u001b[?1049h\u001b[H';
 const LEAVE_ALT = '\u001b[?25h\u001b[?1049l';
 
-export async function startUi(casePath: string): Promise<number> {
-  const session = await openCase(casePath); // a bad case throws CaseError: the CLI prints it, exit 2
+/** exit codes of the signals that end the view, as a shell reports them: 128 + the signal's number */
+export const SIGNAL_EXIT: Readonly<Record<'SIGINT' | 'SIGTERM' | 'SIGHUP', number>> = { SIGHUP: 129, SIGINT: 130, SIGTERM: 143 };
+
+export interface UiOptions {
+  /** accept values outside the working ranges (--allow-extreme) */
+  allowExtreme?: boolean;
+  /** accept edits whose point would take long (--allow-long) */
+  allowLong?: boolean;
+}
+
+export async function startUi(casePath: string, options: UiOptions = {}): Promise<number> {
+  const session = await openCase(casePath, options); // a bad case throws CaseError: the CLI prints it, exit 2
   const engine = threadEngine();
   const out = process.stdout;
   const useAlt = out.isTTY === true;
@@ -38,14 +48,21 @@ export async function startUi(casePath: string): Promise<number> {
     patchConsole: true,
     maxFps: 30,
   });
-  const stop = (): void => app.unmount();
-  const signals: NodeJS.Signals[] = ['SIGINT', 'SIGTERM', 'SIGHUP'];
-  for (const sig of signals) process.on(sig, stop);
+  // a signal leaves as cleanly as q, and the exit code says which signal it was
+  let code = 0;
+  const handlers = (Object.keys(SIGNAL_EXIT) as (keyof typeof SIGNAL_EXIT)[]).map((sig) => {
+    const h = (): void => {
+      if (code === 0) code = SIGNAL_EXIT[sig];
+      app.unmount();
+    };
+    process.on(sig, h);
+    return [sig, h] as const;
+  });
   try {
     await app.waitUntilExit();
-    return 0;
+    return code;
   } finally {
-    for (const sig of signals) process.off(sig, stop);
+    for (const [sig, h] of handlers) process.off(sig, h);
     app.cleanup();
     restore();
     process.off('exit', restore);

@@ -12,6 +12,7 @@
 import { randomBytes } from 'node:crypto';
 import { constants } from 'node:fs';
 import { access, link, open, readFile, rename, unlink } from 'node:fs/promises';
+import { inspectTarget } from '../case/target.js';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import YAML from 'yaml';
 import { parseCase, parseSetValue, parseYamlText, readCaseText } from '../case/index.js';
@@ -146,6 +147,9 @@ export async function saveEditedCase(
   const moved = movedFileKeys(parseYamlText(original, sourceFile), sourceFile, full).map((m) => ({ path: m.path.join('.'), value: JSON.stringify(m.value) }));
   const text = editedCaseText(original, [...edits, ...moved], basename(sourceFile));
   parseCase(text, full); // throws CaseError if it would not load
-  await writeFileAtomic(full, text, opts.overwrite);
+  // never over a device, a folder or a pipe (nor a link to one), even when replacing is confirmed
+  const where = inspectTarget(full);
+  if (where.kind === 'other') throw new Error(`${full} is ${where.what}, not a file: choose another name`);
+  await writeFileAtomic(where.path, text, opts.overwrite);
   return full;
 }

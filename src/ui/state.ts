@@ -7,6 +7,7 @@
 import type { PointResult } from '../core/model.js';
 import { FIELDS, type FieldDef, fieldByPath, overrideText, parseTyped, roundTo } from './fields.js';
 import { mod } from './chart.js';
+import { RPM_LIMITS } from '../case/schema.js';
 
 export type ViewName = 'valve' | 'runner' | 'sweep' | 'case';
 export const VIEWS: readonly ViewName[] = ['valve', 'runner', 'sweep', 'case'];
@@ -23,8 +24,9 @@ export const ZOOMS = [720, 360, 180, 90] as const;
 export const RATES = [15, 30, 60, 120, 240, 480] as const;
 /** Engine-speed step of the + and - keys [rpm]. */
 export const RPM_STEP = 250;
-export const RPM_MIN = 250;
-export const RPM_MAX = 30000;
+/** the speed keys stay inside the limits every command uses (case/schema.ts RPM_LIMITS) */
+export const RPM_MIN = RPM_LIMITS.min;
+export const RPM_MAX = RPM_LIMITS.max;
 
 /** Pulse timing as the analysis reports it, reduced to what the view shows. */
 export interface PulseSummary {

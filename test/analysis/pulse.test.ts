@@ -12,19 +12,19 @@ const ring = (peak: number, period: number, amp: number) => (theta: number) =>
   P_REF + amp * Math.cos((2 * Math.PI * (theta - peak)) / period);
 
 describe('round trip and wave order', () => {
+  // worked by hand: Δθ = 12·N·L/a (kinematics, REFERENCES.md), 2L/a, f₁ = a/(4L) without a model (no end
+  // correction; Kinsler et al.), order f₁·120/N
   it.each([
-    [6000, 0.3, 340],
-    [3000, 0.45, 350],
-    [9000, 0.2, 345],
-  ])('N %d rpm, L %d m, a %d m/s', (rpm, L, a) => {
+    [6000, 0.3, 340, 63.5294, 1.76471, 283.333, 5.66667],
+    [3000, 0.45, 350, 46.2857, 2.57143, 194.444, 7.77778],
+    [9000, 0.2, 345, 62.6087, 1.15942, 431.25, 5.75],
+  ])('N %d rpm, L %d m, a %d m/s: %f° round trip, %f ms, %f Hz, order %f', (rpm, L, a, deg, ms, f, order) => {
     const r = fakeResult(ring(226, 100, 5000), { rpm, runnerLength: L, soundSpeed: a });
     const p = pulseTiming(r);
-    // kinematics (REFERENCES.md): Δθ = 12·N·L/a
-    expect(p.roundTripDegrees).toBeCloseTo((12 * rpm * L) / a, 9);
-    expect(p.roundTripSeconds).toBeCloseTo((2 * L) / a, 12);
-    // without a model there is no end correction: f₁ = a/(4L) (Kinsler et al.)
-    expect(p.quarterWaveFrequency).toBeCloseTo(a / (4 * L), 9);
-    expect(p.waveOrder).toBeCloseTo(((a / (4 * L)) * 120) / rpm, 9);
+    expect(p.roundTripDegrees).toBeCloseTo(deg, 3);
+    expect(p.roundTripSeconds * 1000).toBeCloseTo(ms, 4);
+    expect(p.quarterWaveFrequency).toBeCloseTo(f, 2);
+    expect(p.waveOrder).toBeCloseTo(order, 4);
   });
 
   it('uses the open-end correction of the model (Levine & Schwinger 1948, δ = 0.6133 r)', () => {

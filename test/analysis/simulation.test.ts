@@ -58,11 +58,8 @@ describe('ringing of the runner while the valve is shut', () => {
       const ratio = p.pulse.ringingFrequency / p.pulse.quarterWaveFrequency;
       expect(Math.abs(ratio - 1)).toBeLessThan(0.05);
     }
-    // and the estimate itself is the hand formula at the runner's geometry
-    const m = await demo();
-    const p0 = pts[0]!.pulse;
-    expect(p0.quarterWaveFrequency).toBeCloseTo(p0.soundSpeed / (4 * (0.38 + 0.6133 * 0.02)), 9);
-    expect(m.runner.sections[0]!.diameterStart).toBeCloseTo(0.04, 12);
+    // (the estimate's formula is checked against the REFERENCES.md example in estimates.test.ts;
+    // the engine's own ringing on a fine mesh within 1 % in test/core/open-end-ringing.test.ts)
   });
 });
 

@@ -72,12 +72,10 @@ describe('case → EngineModel', () => {
 
 describe('checking lift: card events widened to the zero-lift ends', () => {
   it('finds where the sin² profile of valve.ts crosses a lift fraction', () => {
-    // independent route: invert lift/Lmax = sin²(πφ) by hand, φ₁ = asin(√r)/π, φ₂ = 1 − φ₁
-    const r = 1 / 9;
-    const c = profileCrossings(undefined, r)!;
-    const phi1 = Math.asin(Math.sqrt(r)) / Math.PI;
-    expect(c.rise).toBeCloseTo(phi1, 9);
-    expect(c.fall).toBeCloseTo(1 - phi1, 9);
+    // inverted by hand: lift/Lmax = sin²(πφ) = 1/9 → φ₁ = asin(1/3)/π = 0.108173, φ₂ = 1 − φ₁ = 0.891827
+    const c = profileCrossings(undefined, 1 / 9)!;
+    expect(c.rise).toBeCloseTo(0.108173, 6);
+    expect(c.fall).toBeCloseTo(0.891827, 6);
   });
   it('puts the checking lift exactly at the card angles (round trip through the core lift curve)', () => {
     const m = model((d) => {

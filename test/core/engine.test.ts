@@ -1,7 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import { simulatePoint } from '../../src/core/engine.js';
-import { sweptVolume } from '../../src/core/kinematics.js';
-import { R_AIR } from '../../src/core/gas.js';
 import { testEngine } from '../support/engine-fixture.js';
 
 describe('one operating point, end to end (our own test engine)', () => {
@@ -12,9 +10,11 @@ describe('one operating point, end to end (our own test engine)', () => {
     expect(r.cycles).toBeLessThan(30);
   });
   it('volumetric efficiency is delivered mass over ambient density × swept volume (Heywood 1988, eq. 2.27, per-cycle form)', () => {
-    const m = testEngine();
-    const ref = (m.ambient.pressure / (R_AIR * m.ambient.temperature)) * sweptVolume(m.engine);
-    expect(r.volumetricEfficiency).toBeCloseTo(r.deliveredMass / ref, 12);
+    // worked by hand for the test engine: Vd = π/4 · 94² · 65 mm³ = 451.09 cm³, ρ = 101325 / (287.05 · 293.15)
+    // = 1.20412 kg/m³ → reference mass 543.160 mg
+    expect(r.referenceMass * 1e6).toBeCloseTo(543.16, 2);
+    expect(Math.abs((r.volumetricEfficiency * 543.16e-6) / r.deliveredMass - 1)).toBeLessThan(1e-5);
+    // common practice: a tuned unboosted single breathes 0.5–1.5 of its swept volume
     expect(r.volumetricEfficiency).toBeGreaterThan(0.5);
     expect(r.volumetricEfficiency).toBeLessThan(1.5);
   });
@@ -27,16 +27,39 @@ describe('one operating point, end to end (our own test engine)', () => {
     expect(r.runnerMap.pressure.length).toBe(720 * r.runnerMap.x.length);
   });
   it('the intake valve passes flow only while it is lifted', () => {
-    for (let j = 0; j < 720; j++) if (r.trace.lift[j] === 0) expect(r.trace.valveFlow[j]).toBe(0);
+    // A sample at θ = j holds the flow of the time step that reaches j, whose valve area is
+    // taken at its midpoint: at IVO and IVC that midpoint may fall on either side of the
+    // event, depending on where the steps fall (they are under 2° long). So the check is
+    // made where the valve is shut over the whole neighbourhood [j − 2°, j + 1°], at any
+    // speed and mesh, and the flow there must be exactly zero.
+    const shut = (j: number) => [-2, -1, 0, 1].every((k) => r.trace.lift[(j + k + 720) % 720] === 0);
+    let checked = 0;
+    for (let j = 0; j < 720; j++)
+      if (shut(j)) {
+        expect(r.trace.valveFlow[j], `θ ${j}`).toBe(0);
+        checked++;
+      }
+    expect(checked).toBeGreaterThan(400); // the valve is shut for 450° of the 720
   });
-  it('trapped mass and residual fraction are physical', () => {
+  it.each([
+    [6100, 0.01],
+    [6300, 0.01],
+    [6500, 0.008],
+    [7000, 0.012],
+  ])('and at %d rpm on a %f m mesh too (no luck of where the steps fall)', (rpm, mesh) => {
+    const t = simulatePoint(testEngine({ rpm, meshSize: mesh, maxCycles: 6 })).result.trace;
+    for (let j = 0; j < 720; j++)
+      if ([-2, -1, 0, 1].every((k) => t.lift[(j + k + 720) % 720] === 0)) expect(t.valveFlow[j], `θ ${j}`).toBe(0);
+  });
+  it('trapped mass and residual fraction are physical (residual gas at full load a few to 20 %: Heywood 1988 §6.4, from memory)', () => {
     expect(r.trappedMass).toBeGreaterThan(0);
     expect(r.residualFraction).toBeGreaterThan(0);
     expect(r.residualFraction).toBeLessThan(0.2);
   });
 });
 
-describe('mass balance per converged cycle: delivered vs runner inlet within 1 %', () => {
+// continuity: over a periodic cycle the runner stores nothing, so what enters its open end leaves through the valve
+describe('mass balance per converged cycle: delivered vs runner inlet within 1 % (conservation of mass)', () => {
   it.each([
     ['characteristics', 4000],
     ['characteristics', 8000],
@@ -57,6 +80,8 @@ describe('mass balance per converged cycle: delivered vs runner inlet within 1 %
   });
 });
 
+// mesh independence (common practice; the grid-convergence study of Roache, Verification and Validation in
+// Computational Science and Engineering, 1998, from memory): halving the mesh changes the answer little
 describe('grid convergence', () => {
   it.each([
     ['conservative', 4000],
@@ -71,6 +96,8 @@ describe('grid convergence', () => {
   });
 });
 
+// at a low speed the gas has time to follow the piston: the cylinder fills to the pressure upstream, as in
+// a steady-flow test of the valve (quasi-steady flow, Heywood 1988 §6.2; section from memory)
 describe('quasi-steady limit', () => {
   it('at 300 rpm with a short wide runner and no overlap, IVC pressure is within 3 % of ambient', () => {
     const m = testEngine({ rpm: 300, runnerLength: 0.05, runnerDiameter: 0.06, ivoBtdc: 0, evcAtdc: 0, ivcAbdc: 0, maxCycles: 12 });

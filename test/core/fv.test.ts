@@ -464,7 +464,7 @@ describe('conservative scheme: state in and out', () => {
     expect(scheme.name).toBe('conservative');
   });
 
-  it('maxStableDt is courant·dx/max(|u| + a) and healthy() catches a bad state', () => {
+  it('maxStableDt is courant·dx/max(|u| + a) (the CFL condition: Courant, Friedrichs & Lewy 1928) and healthy() catches a bad state', () => {
     const mesh = buildMesh([{ length: 0.4, diameterStart: 0.04, diameterEnd: 0.04 }], 0.004);
     const scheme = createConservativeScheme(mesh, NO_WALL);
     scheme.fill(1e5, 50, 300);

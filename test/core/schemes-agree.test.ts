@@ -2,14 +2,23 @@
  * The two runner schemes on the same strong-wave engine point: our test
  * single at 6000 rpm, where the valve-end pressure swings well beyond
  * ±40 kPa around ambient. Both must balance mass per cycle within 0.5 %,
- * give ηv within 1.5 % of each other, put the last compression peak before
- * IVC within 2° and ring at the same closed-valve frequency within 1 %.
+ * give ηv within 1.5 % of each other, bring the ramming compression wave to
+ * the valve at the same crank angle within 2° and ring at the same
+ * closed-valve frequency within 1 %.
+ *
+ * The wave's arrival is timed by its steep front, the last upward crossing
+ * of ambient pressure before IVC, not by the crank angle of its peak: near
+ * IVC the peak is often a broad shoulder whose maximum moves by degrees for
+ * a small change of shape (the picked peaks were 0.06° apart at 6000 rpm and
+ * 5° at 6200), so a peak comparison passes or fails by luck. The front is
+ * checked at five speeds.
  */
 import { describe, expect, it } from 'vitest';
 import { simulatePoint } from '../../src/core/engine.js';
 import { pulseTiming, closedValveRingingPeriod } from '../../src/analysis/pulse.js';
 import { testEngine } from '../support/engine-fixture.js';
 
+// a cross-check of our two schemes against each other (no external source): the published checks of each are in moc.test.ts and fv.test.ts
 describe('characteristics and conservative schemes agree on a strong-wave point', () => {
   const models = {
     characteristics: testEngine({ rpm: 6000, scheme: 'characteristics' }),
@@ -32,12 +41,9 @@ describe('characteristics and conservative schemes agree on a strong-wave point'
   it('ηv within 1.5 %', () => {
     expect(Math.abs(moc.volumetricEfficiency / fv.volumetricEfficiency - 1)).toBeLessThan(0.015);
   });
-  it('last compression peak before IVC within 2°', () => {
-    const a = pulseTiming(moc, models.characteristics).lastPeakBeforeIvc;
-    const b = pulseTiming(fv, models.conservative).lastPeakBeforeIvc;
-    expect(a).not.toBeNull();
-    expect(b).not.toBeNull();
-    expect(Math.abs(a!.crank - b!.crank)).toBeLessThanOrEqual(2);
+  it('both find a compression peak before IVC', () => {
+    expect(pulseTiming(moc, models.characteristics).lastPeakBeforeIvc).not.toBeNull();
+    expect(pulseTiming(fv, models.conservative).lastPeakBeforeIvc).not.toBeNull();
   });
   it('closed-valve ringing frequency within 1 %', () => {
     const ta = closedValveRingingPeriod(moc.trace.valvePressure, moc.trace.crank, moc.events.ivc, moc.events.ivo);
@@ -45,5 +51,30 @@ describe('characteristics and conservative schemes agree on a strong-wave point'
     expect(ta).not.toBeNull();
     expect(tb).not.toBeNull();
     expect(Math.abs(ta! / tb! - 1)).toBeLessThan(0.01);
+  });
+});
+
+/** the last upward crossing of `ref` in the open period IVO → IVC [crank deg, 0..720) */
+function lastRiseBeforeIvc(p: ArrayLike<number>, ivo: number, ivc: number, ref: number): number | null {
+  const span = (((ivc - ivo) % 720) + 720) % 720;
+  let last: number | null = null;
+  for (let k = 1; k <= span; k++) {
+    const a = p[(Math.round(ivo) + k - 1) % 720]! - ref;
+    const b = p[(Math.round(ivo) + k) % 720]! - ref;
+    if (a < 0 && b >= 0) last = (Math.round(ivo) + k - 1 + a / (a - b)) % 720;
+  }
+  return last;
+}
+
+describe('the ramming wave reaches the valve at the same crank angle in both schemes (front within 2°)', () => {
+  it.each([5600, 6000, 6200, 7000, 8000])('%d rpm', (rpm) => {
+    const a = simulatePoint(testEngine({ rpm, scheme: 'characteristics' })).result;
+    const b = simulatePoint(testEngine({ rpm, scheme: 'conservative' })).result;
+    const ta = lastRiseBeforeIvc(a.trace.valvePressure, a.events.ivo, a.events.ivc, 101325);
+    const tb = lastRiseBeforeIvc(b.trace.valvePressure, b.events.ivo, b.events.ivc, 101325);
+    expect(ta).not.toBeNull();
+    expect(tb).not.toBeNull();
+    const d = Math.abs(ta! - tb!) % 720;
+    expect(Math.min(d, 720 - d)).toBeLessThanOrEqual(2);
   });
 });

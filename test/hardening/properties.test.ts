@@ -78,7 +78,7 @@ describe('random physically valid engines (fast-check, fixed seed)', () => {
   );
 
   it(
-    'once periodic, the mass into the runner matches the mass through the valve within 1 %',
+    'once periodic, the mass into the runner matches the mass through the valve within 1 % (conservation of mass over a cycle)',
     () => {
       // A cycle that is not yet periodic also changes the gas stored in the runner, so the
       // balance is checked on converged points only (cap 30 cycles); most random engines converge.

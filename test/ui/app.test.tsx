@@ -16,31 +16,41 @@ const TAB = '\t';
 const ENTER = '\r';
 const BACKSPACE = '\u007f';
 
-/** Ink needs a moment after a key before the frame shows it. */
-const settle = (ms = 60): Promise<void> => new Promise((r) => setTimeout(r, ms));
+/** how long a condition may take to show before the test fails with what it waited for */
+const WAIT_MS = 5000;
+/** one turn of the event loop: Ink renders after the input handler returns */
+const tick = (ms = 10): Promise<void> => new Promise((r) => setTimeout(r, ms));
+
+/** Poll `cond` until it holds; fail after WAIT_MS with `what()` (and the frame) in the message. */
+async function waitFor(cond: () => boolean, what: () => string): Promise<void> {
+  const t0 = Date.now();
+  while (!cond()) {
+    if (Date.now() - t0 > WAIT_MS) throw new Error(`${what()} (waited ${WAIT_MS / 1000} s)`);
+    await tick();
+  }
+}
 
 function start(size = { columns: 80, rows: 24 }, color = false) {
   const session = fakeSession();
   const engine = fakeEngine();
   const app = render(<App session={session} engine={engine} size={size} color={color} debounceMs={0} />);
   const frame = (): string => stripAnsi(app.lastFrame() ?? '');
+  /** press keys one by one, each time waiting until the frame shows its effect */
   const press = async (...keys: string[]): Promise<void> => {
     for (const k of keys) {
+      const before = frame();
       app.stdin.write(k);
-      await settle();
+      await waitFor(() => frame() !== before, () => `key ${JSON.stringify(k)} changed nothing on the screen; the frame was:\n${before}`);
     }
   };
-  /** wait until the frame shows `text` (the first point, a re-run), at most 3 s */
+  /** wait until the frame shows `text` (the first point, a re-run) */
   const until = async (text: string | RegExp): Promise<void> => {
-    for (let k = 0; k < 100; k++) {
-      const f = frame();
-      if (typeof text === 'string' ? f.includes(text) : text.test(f)) return;
-      await settle(30);
-    }
+    const has = (): boolean => (typeof text === 'string' ? frame().includes(text) : text.test(frame()));
+    await waitFor(has, () => `the frame never showed ${String(text)}; it is:\n${frame()}`);
   };
-  /** wait until a condition holds, at most 3 s */
-  const untilTrue = async (cond: () => boolean): Promise<void> => {
-    for (let k = 0; k < 100 && !cond(); k++) await settle(30);
+  /** wait until a condition holds */
+  const untilTrue = async (cond: () => boolean, what = 'the condition'): Promise<void> => {
+    await waitFor(cond, () => `${what} never held; the frame is:\n${frame()}`);
   };
   return { app, session, engine, frame, press, until, untilTrue };
 }
@@ -88,9 +98,9 @@ describe('the terminal view', () => {
     expect(f).toContain('Safety');
     expect(f).toContain('ten degrees');
     expectFits(f, 80, 24);
-    await t.press('\u001b');
-    await settle(100); // esc is told apart from an escape sequence after a short wait
-    expect(t.frame()).not.toContain('Safety');
+    // esc alone is told apart from an escape sequence after a short wait: wait for the help to close
+    t.app.stdin.write('\u001b');
+    await t.untilTrue(() => !t.frame().includes('Safety'), 'the help closing on esc');
   });
 
   it('tab cycles the views', async () => {
@@ -109,7 +119,7 @@ describe('the terminal view', () => {
     const t = start();
     await t.until('IVC');
     await t.press('4', DOWN, ENTER, '4', '2', '0', ENTER);
-    await t.untilTrue(() => t.engine.runs.length === 2);
+    await t.untilTrue(() => t.engine.runs.length === 2, 'a second run after the edit');
     await t.until('(baseline 300)');
     expect(t.engine.runs).toHaveLength(2);
     expect(t.engine.runs[1]?.runner.sections[0]?.length).toBeCloseTo(0.42, 12);
@@ -118,6 +128,7 @@ describe('the terminal view', () => {
     expect(f).toContain('(baseline 300)');
     expect(f).toMatch(/baseline \d+\.\d %/);
     await t.press('1');
+    await t.until('· baseline');
     f = t.frame();
     expect(f).toContain('· baseline');
     expect(f).toMatch(/\d·|·\d|··/); // the baseline curve's dots are drawn
@@ -127,11 +138,11 @@ describe('the terminal view', () => {
     const t = start();
     await t.until('IVC');
     await t.press('+');
-    await t.untilTrue(() => t.engine.runs.length === 2);
-    expect(t.frame()).toContain('6250 rpm');
+    await t.untilTrue(() => t.engine.runs.length === 2, 'a re-run at the new speed');
+    await t.until('6250 rpm');
     expect(t.engine.runs.at(-1)?.rpm).toBe(6250);
     await t.press('-', '-');
-    await t.untilTrue(() => t.engine.runs.at(-1)?.rpm === 5750);
+    await t.untilTrue(() => t.engine.runs.at(-1)?.rpm === 5750, 'a run at 5750 rpm');
     expect(t.engine.runs.at(-1)?.rpm).toBe(5750);
   });
 
@@ -151,7 +162,7 @@ describe('the terminal view', () => {
     const t = start();
     await t.until('IVC');
     await t.press('w');
-    expect(t.frame()).toContain('/cases/synthetic-3.yaml');
+    await t.until('/cases/synthetic-3.yaml');
     await t.press(ENTER);
     await t.until('Saved to');
     expect(t.session.saved).toEqual([{ edits: [], path: '/cases/synthetic-3.yaml', overwrite: false }]);
@@ -159,8 +170,7 @@ describe('the terminal view', () => {
     // now type the name of a file that exists
     await t.press('w');
     await t.press(...Array.from({ length: 6 }, () => BACKSPACE), '2.yaml', ENTER);
-    await t.until('already exists');
-    expect(t.frame()).toContain('/cases/synthetic-2.yaml already exists. Overwrite it?');
+    await t.until('/cases/synthetic-2.yaml already exists. Overwrite it?');
     expect(t.session.saved).toHaveLength(1);
     await t.press('y');
     await t.until('Saved to /cases/synthetic-2.yaml');
@@ -198,17 +208,23 @@ describe('the terminal view', () => {
   ])('at %i × %i no line is wider than the terminal in any view (colour on, ANSI stripped)', async (columns, rows) => {
     const t = start({ columns, rows }, true);
     await t.until('IVC');
-    for (const k of ['1', '2', '3', 's', '4', '?']) {
+    expectFits(t.frame(), columns, rows);
+    // each key changes the screen: the Runner, Sweep (which starts the sweep), Case and Valve views, the sweep
+    // stopped or run again from the Valve view's neighbour, and the help
+    for (const k of ['2', '3', '4', '1', '?']) {
       await t.press(k);
       expectFits(t.frame(), columns, rows);
     }
+    await t.press('?'); // closes the help
+    await t.press('3');
+    await t.until(/mean ηv \d/); // the sweep has finished: its full screen
+    expectFits(t.frame(), columns, rows);
   });
 
   it('a window smaller than usable shows a clear note instead of the views', async () => {
     const t = start({ columns: 60, rows: 20 });
-    await settle();
+    await t.until('Make the window larger');
     const f = t.frame();
-    expect(f).toContain('Make the window larger');
     expect(f).not.toContain('IVC');
     expectFits(f, 60, 20);
   });

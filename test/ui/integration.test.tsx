@@ -71,11 +71,14 @@ describe('the engine service on the real core', () => {
     });
     expect(again).toEqual(serial);
 
-    // a stopped sweep reports nothing more
+    // a stopped sweep reports nothing more: a sweep started after it runs to its end on the same
+    // threads (each takes its work in order), so anything the stopped one still had to say came before
     let after = 0;
     const h = threads.runSweep(model, rpms, { onPoint: () => after++, onDone: () => after++, onError: () => after++ });
     h.cancel();
-    await new Promise((r) => setTimeout(r, 300));
+    await new Promise<void>((resolve, reject) => {
+      threads.runSweep(model, rpms, { onPoint: () => {}, onDone: resolve, onError: (m) => reject(new Error(m)) });
+    });
     expect(after).toBe(0);
   }, 60_000);
 });
@@ -85,12 +88,17 @@ describe('the screen on the real core', () => {
     const session = await coarseDemo();
     const model = session.build([]);
     const app = render(<App session={session} engine={inlineEngine()} size={{ columns: 80, rows: 24 }} color={false} />);
-    const wait = (ms: number) => new Promise((r) => setTimeout(r, ms));
-    let frame = '';
-    for (let k = 0; k < 100 && !frame.includes('At IVC'); k++) {
-      await wait(50);
-      frame = stripAnsi(app.lastFrame() ?? '');
-    }
+    const current = (): string => stripAnsi(app.lastFrame() ?? '');
+    /** poll until `cond` holds on the frame; fail after 20 s saying what was awaited */
+    const waitFor = async (cond: (f: string) => boolean, what: string): Promise<string> => {
+      const t0 = Date.now();
+      while (!cond(current())) {
+        if (Date.now() - t0 > 20_000) throw new Error(`${what} never showed; the frame is:\n${current()}`);
+        await new Promise((r) => setTimeout(r, 10));
+      }
+      return current();
+    };
+    let frame = await waitFor((f) => f.includes('At IVC'), 'the first computed point (At IVC)');
     const { result } = (await inlineEngine().runPoint(model));
     const p0 = ((result.trace.valvePressure[0] ?? 0) / 1000).toFixed(1);
     expect(frame).toContain(`Pressure at the valve  ${p0} kPa`);
@@ -99,9 +107,9 @@ describe('the screen on the real core', () => {
     // n steps through the valve events in crank order; IVC is one of them
     const ivc = Math.round(result.events.ivc);
     for (let k = 0; k < 4 && !frame.includes(`θ ${String(ivc).padStart(3)}°`); k++) {
+      const before = frame;
       app.stdin.write('n');
-      await wait(60);
-      frame = stripAnsi(app.lastFrame() ?? '');
+      frame = await waitFor((f) => f !== before, `the cursor moving to the next valve event (key n, press ${k + 1})`);
     }
     expect(frame).toContain(`θ ${String(ivc).padStart(3)}°`);
     const pIvc = ((result.trace.valvePressure[ivc] ?? 0) / 1000).toFixed(1);

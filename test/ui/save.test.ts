@@ -167,3 +167,14 @@ describe('where an edited case is offered', () => {
     await rm(own, { recursive: true, force: true });
   });
 });
+
+describe('saving never replaces anything but a regular file', () => {
+  it('a device is refused even when replacing is confirmed, and stays a device', async () => {
+    const { saveEditedCase } = await import('../../src/ui/save.js');
+    const { lstatSync } = await import('node:fs');
+    const { fileURLToPath } = await import('node:url');
+    const demo = fileURLToPath(new URL('../../cases/demo.yaml', import.meta.url));
+    await expect(saveEditedCase(demo, [], '/dev/null', { overwrite: true })).rejects.toThrow(/\/dev\/null is a device, not a file/);
+    expect(lstatSync('/dev/null').isCharacterDevice()).toBe(true);
+  });
+});

@@ -1,4 +1,5 @@
 /** `tractwave check CASE`: validate, print derived geometry and hand estimates. */
+import { printable } from '../../case/printable.js';
 import { clearanceVolume, sweptVolume } from '../../core/kinematics.js';
 import { curtainArea } from '../../core/valve.js';
 import { sectionsVolume, totalLength } from '../../core/pipe/mesh.js';
@@ -8,7 +9,7 @@ import { soundSpeed } from '../../core/gas.js';
 import { endCorrection as coreEndCorrection } from '../../core/network/end-correction.js';
 import { DEFAULT_RELEASE_PRESSURE } from '../../core/network/assemble.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
 import { card, cc, cm2, deg, fix, hz, kPa, mm, row, rpm, wrap } from '../format.js';
 import type { LoadedCase } from '../../case/load.js';
 import { effectiveCard, wrap720 } from '../../case/to-model.js';
@@ -16,7 +17,7 @@ import { eventLines } from '../run-output.js';
 import { measuredFileLines } from '../measured-output.js';
 import { density } from '../../core/gas.js';
 
-const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION];
+const OPTIONS: OptionSpec[] = [RPM_OPTION, SET_OPTION, ALLOW_EXTREME_OPTION];
 
 export function checkReport(loaded: LoadedCase): string {
   const m = loaded.model;
@@ -29,7 +30,7 @@ export function checkReport(loaded: LoadedCase): string {
   const hi = c.sweep?.to ?? m.rpm * 1.5;
   const est = caseEstimates(m, lo, hi);
   const a = est.soundSpeed;
-  let s = `${m.name}${loaded.file ? `  (${loaded.file})` : ''}: the case is valid\n`;
+  let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}: the case is valid\n`;
   s += `  ${wrap(networkLine(m), 76, '    ')}\ngeometry\n`;
   s += row('displacement', `${cc(vd)}  (bore ${mm(m.engine.bore)} x stroke ${mm(m.engine.stroke)})`);
   s += row('clearance volume', `${cc(vc)}  (compression ratio ${fix(m.engine.compressionRatio, 2)})`);

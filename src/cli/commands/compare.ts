@@ -3,13 +3,15 @@
  * their curves overlaid, the difference per speed, the band means side by
  * side and where each one wins.
  */
+import { printable } from '../../case/printable.js';
 import { networkLine } from '../../analysis/network-line.js';
 import { performance } from 'node:perf_hooks';
 import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
 import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
 import { runSweeps } from '../../analysis/worker-pool.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
+import { combinedCost, engineCost } from '../../analysis/cost.js';
 import { fix, table } from '../format.js';
 import { writeFileAtomic } from '../write-file.js';
 import { chartPoints, dynoBlockTwo, dynoJsonTwo, outputChart } from '../dyno-output.js';
@@ -41,6 +43,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print both curves and the differences as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed with both curves to FILE' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 function spanText(s: WinSpan): string {
@@ -92,6 +96,12 @@ examples
     const dyno = await dynoOf(args, a, io.cwd);
     const grid = sweepGrid(args, a.case);
     const band = chooseBand(args, a.case, grid);
+    {
+      // both designs share the workers
+      const ca = engineCost(a.model, grid.values);
+      const cb = engineCost(b.model, grid.values);
+      checkCost(combinedCost([ca, cb], jobs), ca.seconds >= cb.seconds ? a.model : b.model, args, '--rpm');
+    }
     const bar = progress(io, 'compare');
     const t0 = performance.now();
     let pa: SweepPoint[];
@@ -123,8 +133,8 @@ examples
     const ea = pa.map((p) => p.volumetricEfficiency);
     const eb = pb.map((p) => p.volumetricEfficiency);
     const spans = winningSpans(rpms, ea, eb);
-    for (const w of sweepWarnings(pa, a.model.numerics.maxCycles, 'A')) io.stderr.write(`${w}\n`);
-    for (const w of sweepWarnings(pb, b.model.numerics.maxCycles, 'B')) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(pa, a.model.numerics.maxCycles, 'A', a.model)) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(pb, b.model.numerics.maxCycles, 'B', b.model)) io.stderr.write(`${w}\n`);
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
     if (b.case.band && (b.case.band.from !== band.from || b.case.band.to !== band.to) && band.source !== 'option')
       io.stderr.write(`note: B's own band ${b.case.band.from}–${b.case.band.to} rpm is not used; both are judged over A's band (set --band to choose)\n`);
@@ -162,9 +172,9 @@ examples
 
     const out: string[] = [
       `compare over ${fix(rpms[0]!, 0)}–${fix(rpms[rpms.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm (${rpms.length * 2} points, ${fix(wallSeconds, 1)} s)`,
-      `  A (line ─): ${a.model.name} [${fileA}]`,
+      `  A (line ─): ${a.model.name} [${printable(fileA!)}]`,
       `    ${networkLine(a.model)}`,
-      `  B (dots ·): ${b.model.name} [${fileB}]`,
+      `  B (dots ·): ${b.model.name} [${printable(fileB!)}]`,
       `    ${networkLine(b.model)}`,
       '',
       `volumetric efficiency ηv [%] against speed${dyno?.kinds.includes('volumetricEfficiency') ? ` (● measured, ${dyno.file})` : ''}`,

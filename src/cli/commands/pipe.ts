@@ -1,15 +1,19 @@
 /** `tractwave pipe CASE`: the bare pipe experiment (teaching and verification). */
+import { printable } from '../../case/printable.js';
 import { performance } from 'node:perf_hooks';
 import { runPipeExperiment } from '../../core/pipe-experiment.js';
 import type { PipeExperimentResult } from '../../core/pipe-experiment-model.js';
 import { loadPipeCase, type LoadedPipeCase } from '../../case/load.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_LONG_OPTION, SET_OPTION, type Command } from '../command.js';
+import { costProblem, pipeCost } from '../../analysis/cost.js';
+import { CaseError } from '../../case/errors.js';
 import { fix, table } from '../format.js';
 
 const OPTIONS: OptionSpec[] = [
   { ...SET_OPTION, description: 'override a case value, e.g. --set pipe.length=2m (repeatable)' },
   { name: 'json', type: 'boolean', description: 'print x and the snapshots as JSON (SI units)' },
+  ALLOW_LONG_OPTION,
 ];
 
 /** rows shown per snapshot in the text table */
@@ -21,7 +25,7 @@ export function pipeJson(r: PipeExperimentResult, wallSeconds: number) {
 
 export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number): string {
   const m = loaded.model;
-  let s = `${m.name}${loaded.file ? `  (${loaded.file})` : ''}\n`;
+  let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
   s += `  pipe ${fix(m.pipe.length, 3)} m x ${fix(m.pipe.diameter * 1000, 1)} mm, ends: left ${m.ends.left}, right ${m.ends.right}; `;
   s += `friction ${m.pipe.wallFriction ? 'on' : 'off'}, wall heat transfer ${m.pipe.wallHeatTransfer ? 'on' : 'off'}\n`;
   s += `  initial split at ${fix(m.initial.split * m.pipe.length, 3)} m: left ${fix(m.initial.left.pressure / 1000, 2)} kPa ${fix(m.initial.left.temperature, 1)} K, `;
@@ -79,6 +83,8 @@ examples
     const args = parseArgs(argv, OPTIONS);
     const [file] = expectPositionals(args, ['CASE'], 'pipe');
     const loaded = await loadPipeCase(file!, { set: args.list('set'), cwd: io.cwd });
+    const problem = args.flag('allow-long') ? undefined : costProblem(pipeCost(loaded.model), 'pipe');
+    if (problem) throw new CaseError(loaded.model.pipe.meshSize < 0.002 ? 'pipe.meshSize' : 'times', problem, 'option');
     const t0 = performance.now();
     const r = runPipeExperiment(loaded.model);
     const wallSeconds = (performance.now() - t0) / 1000;

@@ -14,7 +14,8 @@ import type { LoadedCase } from '../../case/load.js';
 import type { ReportDesign } from '../../report/gather.js';
 import { UNIT_SYSTEMS, type UnitSystem } from '../../report/units.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec, type ParsedArgs } from '../args.js';
-import { parseRpm, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, parseRpm, SET_OPTION, type Command } from '../command.js';
+import { combinedCost, engineCost } from '../../analysis/cost.js';
 import { fix } from '../format.js';
 import type { CliIo } from '../io.js';
 import { packageVersion } from '../package-root.js';
@@ -45,6 +46,8 @@ const OPTIONS: OptionSpec[] = [
   SET_OPTION,
   JOBS_OPTION,
   { name: 'force', type: 'boolean', description: 'allow replacing existing files' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 /** The --units value, or exit 2. */
@@ -145,6 +148,7 @@ examples
     if (measuredFile !== undefined) measured = await loadMeasuredSheet(measuredFile, io.cwd);
     const grid = sweepGrid(args, loaded.case);
     const band = chooseBand(args, loaded.case, grid);
+    checkCost(combinedCost([loaded, ...(other ? [other] : [])].map((l) => engineCost(l.model, grid.values)), 1), loaded.model, args, '--rpm');
     const assumptions = assumptionsOf(loaded.case);
 
     const { buildReport, gatherReport } = await import('../../report/index.js');

@@ -4,9 +4,11 @@ import { simulatePoint } from '../../core/engine.js';
 import { pulseTiming } from '../../analysis/pulse.js';
 import { CaseError } from '../../case/errors.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { engineCost } from '../../analysis/cost.js';
+import { cycleProgress } from '../progress.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
-import { writeFileAtomic } from '../write-file.js';
+import { checkOutputFile, writeFileAtomic } from '../write-file.js';
 import { compareTrace } from '../../analysis/trace-compare.js';
 import { supplyBasis, traceJson, traceLines } from '../measured-output.js';
 import { traceOf } from '../measured-options.js';
@@ -22,6 +24,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'measured-trace', type: 'string', value: 'FILE', description: "a runner pressure trace (CSV: crank_deg, pressure_kPa or pressure_kPa_gauge) to compare with the model (default: the case's measuredTrace)" },
   { name: 'sensor-at', type: 'string', value: 'D', description: "the transducer's distance from the valve along the runner, e.g. 80mm (default: at the valve)" },
   { name: 'tdc-offset', type: 'string', value: 'DEG', description: "added to the trace's crank angles to give θ (default 0)" },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 export const runCommand: Command = {
@@ -43,11 +47,18 @@ inletMass, massImbalance, trappedMass, ivcPressure, residualFraction,
 valvePressureAtIvo, valvePressureAtIvc, peakReverseFlow, events {ivo, ivc,
 evo, evc}, pulse {...}, stats {nodes, steps, wallSeconds, scheme}, trace
 {crank, valvePressure, valveFlow, cylinderPressure, cylinderMass, lift}
-(720 samples, one per crank degree). SI units: kg, Pa, kg/s, m; angles θ in
-degrees with 0 = TDC at the start of the intake stroke.
+(720 samples, one per crank degree), warnings [...] (the stderr warnings as
+text). SI units: kg, Pa, kg/s, m; angles θ in degrees with 0 = TDC at the
+start of the intake stroke.
 
 A run that does not converge still exits 0, with converged: false and a
-warning on stderr.
+warning on stderr. So does a result no engine gives (ηv below 0 or above
+200 %, residual gas above 50 %): the warning says what it means.
+
+Values outside the ranges engines meet (ambient, back pressure, gas and
+wall temperatures, valve sizes) are refused unless --allow-extreme. A run
+estimated to take over 15 minutes is refused unless --allow-long; on a
+terminal a run of more than a few seconds shows its progress.
 
 examples
   tractwave run cases/demo.yaml
@@ -80,11 +91,22 @@ always on the ambient density (volumetricEfficiencyBasis).
     }
     const loaded = await loadCaseFromArgs(file!, args, io);
     const measured = await traceOf(args, loaded, io.cwd);
+    // a file that may not be written is refused before the run, not after it
+    if (csv !== undefined) await checkOutputFile(csv, { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+    const cost = engineCost(loaded.model);
+    checkCost(cost, loaded.model, args, '--rpm');
+    const bar = cycleProgress(io, cost);
     const t0 = performance.now();
-    const { result } = simulatePoint(loaded.model);
+    let result;
+    try {
+      result = simulatePoint(loaded.model, bar ? { onCycle: bar.tick } : {}).result;
+    } finally {
+      bar?.done();
+    }
     const wallSeconds = (performance.now() - t0) / 1000;
     const pulse = pulseTiming(result, loaded.model);
-    for (const w of runWarnings(result, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
+    const warnings = runWarnings(result, loaded.model.numerics.maxCycles, loaded.model);
+    for (const w of warnings) io.stderr.write(`${w}\n`);
     const cmp = measured ? compareTrace(result, loaded.model, measured.byDegree, measured.sensorAt) : undefined;
     if (svg !== undefined) {
       const { renderSvg, units, valveChart } = await import('../../report/index.js');
@@ -93,7 +115,7 @@ always on the ambient density (volumetricEfficiencyBasis).
     }
     if (args.flag('json')) {
       const json = {
-        ...runJson(result, pulse, wallSeconds, loaded.model),
+        ...runJson(result, pulse, wallSeconds, loaded.model, warnings),
         ...supplyBasis(result, loaded.model).json,
         ...(cmp && measured ? { measuredTrace: traceJson(cmp, measured) } : {}),
       };

@@ -7,7 +7,9 @@
  */
 import { networkLine } from '../../analysis/network-line.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
-import { existsSync } from 'node:fs';
+import { curveWarnings } from '../../analysis/plausibility.js';
+import type { EngineModel } from '../../core/model.js';
+import { engineCost } from '../../analysis/cost.js';
 import { resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import * as asciichart from 'asciichart';
@@ -17,15 +19,16 @@ import { summariseSweep, SWEEP_CHUNK_POINTS, type SweepPoint, type SweepSummary 
 import { defaultJobs, runSweep } from '../../analysis/worker-pool.js';
 import { CaseError } from '../../case/errors.js';
 import { loadCase, type LoadedCase } from '../../case/load.js';
-import type { Case } from '../../case/schema.js';
+import { speedProblem, type Case } from '../../case/schema.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec, type ParsedArgs } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
 import { fix, table, wrap } from '../format.js';
 import type { CliIo } from '../io.js';
 import { writeFileAtomic } from '../write-file.js';
 import { chartPoints, dynoBlock, dynoJson, outputChart } from '../dyno-output.js';
 import { dynoOf, MEASURED_OPTION } from '../measured-options.js';
 import { checkTarget } from '../target.js';
+import { timeLeft } from '../progress.js';
 
 /** speed range used when neither --rpm nor the case's `sweep` key gives one */
 export const DEFAULT_SWEEP = { from: 3000, to: 9000, step: 250 } as const;
@@ -67,13 +70,26 @@ export function parseJobs(args: ParsedArgs): number {
 /** The speeds of a sweep: --rpm, else the case's sweep key, else DEFAULT_SWEEP. */
 export function sweepGrid(args: ParsedArgs, c: Case): NumberGrid {
   const text = args.string('rpm');
+  let grid: NumberGrid;
   try {
-    if (text !== undefined) return parseGrid(text, '--rpm', { units: ['rpm'] });
-    const s = c.sweep ?? DEFAULT_SWEEP;
-    return parseGrid(`${s.from}:${s.to}:${s.step}`, c.sweep ? 'sweep' : '--rpm');
+    if (text !== undefined) grid = parseGrid(text, '--rpm', { units: ['rpm'] });
+    else {
+      const s = c.sweep ?? DEFAULT_SWEEP;
+      grid = parseGrid(`${s.from}:${s.to}:${s.step}`, c.sweep ? 'sweep' : '--rpm');
+    }
   } catch (e) {
     throw asInputError(e);
   }
+  // the same speed limits as the case's rpm and --rpm N (case/schema.ts speedProblem)
+  const option = text !== undefined || !c.sweep ? '--rpm' : 'sweep';
+  for (const [v, end] of [
+    [grid.values[0]!, 'FROM'],
+    [grid.values[grid.values.length - 1]!, 'TO'],
+  ] as const) {
+    const problem = speedProblem(v);
+    if (problem) throw new CaseError(option, `${end} ${problem}`, 'option');
+  }
+  return grid;
 }
 
 export interface BandChoice {
@@ -131,14 +147,15 @@ export function assumptionsOf(c: Case): OutputAssumptions {
   };
 }
 
-/** A progress line on stderr when it is a terminal; `done()` clears it. */
+/** A progress line on stderr when it is a terminal, with the time left; `done()` clears it. */
 export function progress(io: CliIo, what: string): { tick: (done: number, total: number, rpm: number) => void; done: () => void } {
   if (!io.stderrIsTTY) return { tick: () => {}, done: () => {} };
   let shown = false;
+  const t0 = performance.now();
   return {
     tick: (done, total, rpm) => {
       shown = true;
-      io.stderr.write(`\r\x1b[K${what}: ${done}/${total} points (last ${fix(rpm, 0)} rpm)`);
+      io.stderr.write(`\r\x1b[K${what}: ${done}/${total} points (last ${fix(rpm, 0)} rpm${timeLeft(t0, done, total)})`);
     },
     done: () => {
       if (shown) io.stderr.write('\r\x1b[K');
@@ -147,7 +164,12 @@ export function progress(io: CliIo, what: string): { tick: (done: number, total:
 }
 
 /** Warnings for points that did not converge or lost mass. */
-export function sweepWarnings(points: readonly Pick<SweepPoint, 'rpm' | 'converged' | 'massImbalance'>[], maxCycles: number, label = ''): string[] {
+export function sweepWarnings(
+  points: readonly (Pick<SweepPoint, 'rpm' | 'converged' | 'massImbalance' | 'volumetricEfficiency'> & Partial<Pick<SweepPoint, 'residualFraction'>>)[],
+  maxCycles: number,
+  label = '',
+  model?: Pick<EngineModel, 'inlet' | 'ambient'>,
+): string[] {
   const out: string[] = [];
   const bad = points.filter((p) => !p.converged);
   const who = label ? `${label}: ` : '';
@@ -162,6 +184,7 @@ export function sweepWarnings(points: readonly Pick<SweepPoint, 'rpm' | 'converg
       `warning: ${who}mass balance off by more than ${MASS_IMBALANCE_LIMIT * 100} % at ${leaky.map((p) => fix(p.rpm, 0)).join(', ')} rpm ` +
         '(a finer numerics.meshSize or the conservative scheme helps)',
     );
+  for (const w of curveWarnings(points, label, model)) out.push(`warning: ${w}`);
   return out;
 }
 
@@ -409,14 +432,14 @@ export function csvAndJsonChoice(args: ParsedArgs, io: CliIo, withSvg = false): 
   if (csv !== undefined && args.flag('json')) throw new CaseError('--csv', 'choose one of --json and --csv', 'option');
   if (args.flag('force') && csv === undefined && !(withSvg && args.string('svg') !== undefined))
     throw new CaseError('--force', `only applies with --csv FILE${withSvg ? ' or --svg FILE' : ''}`, 'option');
-  if (csv !== undefined && !args.flag('force') && existsSync(resolve(io.cwd, csv)))
-    throw new CaseError('--csv', `'${csv}' already exists; add --force to overwrite it`, 'option');
+  // the same checks as every output file (cli/target.ts): not over anything but a regular file, not unasked
+  if (csv !== undefined) checkTarget(csv, '--csv', io, args.flag('force'));
   return csv;
 }
 
-/** Load a case with --set (no --rpm: the speeds are a range here). */
+/** Load a case with --set and --allow-extreme (no --rpm: the speeds are a range here). */
 export async function loadForSweep(file: string, args: ParsedArgs, io: CliIo): Promise<LoadedCase> {
-  return loadCase(file, { set: args.list('set'), cwd: io.cwd });
+  return loadCase(file, { set: args.list('set'), cwd: io.cwd, allowExtreme: args.flag('allow-extreme') });
 }
 
 const OPTIONS: OptionSpec[] = [
@@ -429,6 +452,8 @@ const OPTIONS: OptionSpec[] = [
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed to FILE (header row with units)' },
   { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of ηv against speed (band, mean, best speed, tuned speeds) to FILE (SVG)' },
   { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 export interface SweepJson {
@@ -510,6 +535,7 @@ examples
     const dyno = await dynoOf(args, loaded, io.cwd);
     const grid = sweepGrid(args, loaded.case);
     const band = chooseBand(args, loaded.case, grid);
+    checkCost(engineCost(loaded.model, grid.values, jobs), loaded.model, args, '--rpm');
     const assumptions = assumptionsOf(loaded.case);
     const bar = progress(io, 'sweep');
     const t0 = performance.now();
@@ -522,7 +548,7 @@ examples
     const wallSeconds = (performance.now() - t0) / 1000;
     const summary = summariseSweep(points, band);
     const estimates = caseEstimates(loaded.model, grid.values[0]!, grid.values[grid.values.length - 1]!);
-    for (const w of sweepWarnings(points, loaded.model.numerics.maxCycles)) io.stderr.write(`${w}\n`);
+    for (const w of sweepWarnings(points, loaded.model.numerics.maxCycles, '', loaded.model)) io.stderr.write(`${w}\n`);
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
     if (svg !== undefined) {
       const { renderSvg, speedVeChart } = await import('../../report/index.js');

@@ -21,7 +21,7 @@
 import { createHash } from 'node:crypto';
 import { basename } from 'node:path';
 import { performance } from 'node:perf_hooks';
-import { roughDuration, sweepsSeconds } from '../../analysis/cost.js';
+import { combinedCost, engineCost, roughDuration, sweepsSeconds } from '../../analysis/cost.js';
 import { parseVary, type NumberGrid, type VarySpec } from '../../analysis/range.js';
 import { DesignSearch, RESOLUTION, type SearchAxis } from '../../analysis/search.js';
 import { NELDER_MEAD_LIBRARY } from '../../analysis/nelder-mead.js';
@@ -33,7 +33,7 @@ import { CaseError, isCaseError } from '../../case/errors.js';
 import { buildCase, parseYamlText, readCaseText, type LoadedCase } from '../../case/load.js';
 import { UNITS } from '../../case/units.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
 import { fix, table } from '../format.js';
 import type { CliIo } from '../io.js';
 import { packageVersion } from '../package-root.js';
@@ -97,6 +97,8 @@ const OPTIONS: OptionSpec[] = [
   },
   { name: 'search', type: 'boolean', description: 'walk towards the best band mean (Nelder–Mead simplex) instead of simulating the whole grid' },
   { name: 'budget', type: 'string', value: 'N', description: `with --search: the most designs to simulate (default ${DEFAULT_BUDGET})` },
+  ALLOW_EXTREME_OPTION,
+  ALLOW_LONG_OPTION,
 ];
 
 // ---------------------------------------------------------------- the plan
@@ -184,23 +186,25 @@ export interface TunePlan {
   band: BandChoice;
   /** designs in the whole grid */
   total: number;
+  /** values outside the working ranges accepted (--allow-extreme) */
+  allowExtreme: boolean;
 }
 
 /** The plan of a tune: the same for tune and merge, from the case and the options alone. */
-export function planTune(raw: Record<string, unknown>, caseFile: string, request: TuneRequest): TunePlan {
+export function planTune(raw: Record<string, unknown>, caseFile: string, request: TuneRequest, allowExtreme = false): TunePlan {
   const axes = parseAxes(request.vary);
   const total = gridSize(axes.map((a) => a.values.length));
-  const base = buildCase(raw, caseFile, { set: request.set });
+  const base = buildCase(raw, caseFile, { set: request.set, allowExtreme });
   const argv = [...(request.rpm !== null ? ['--rpm', request.rpm] : []), ...(request.band !== null ? ['--band', request.band] : [])];
   const args = parseArgs(argv, [RANGE_OPTION, BAND_OPTION]);
   const grid = sweepGrid(args, base.case);
   const band = chooseBand(args, base.case, grid);
-  return { caseFile, raw, request, axes, base, grid, band, total };
+  return { caseFile, raw, request, axes, base, grid, band, total, allowExtreme };
 }
 
 function designCase(plan: TunePlan, sets: readonly string[]): LoadedCase {
   try {
-    return buildCase(plan.raw, plan.caseFile, { set: [...plan.request.set, ...sets] });
+    return buildCase(plan.raw, plan.caseFile, { set: [...plan.request.set, ...sets], allowExtreme: plan.allowExtreme });
   } catch (e) {
     if (isCaseError(e)) throw new CaseError(e.path, `${e.detail} (in the design ${sets.join(', ')})`, e.code);
     throw e;
@@ -475,7 +479,7 @@ async function writeReport(
 ): Promise<number> {
   const { axes, grid, band } = plan;
   const maxCycles = plan.base.model.numerics.maxCycles;
-  for (const r of csvOrder) for (const w of sweepWarnings(r.ranked.points, maxCycles, r.label)) io.stderr.write(`${w}\n`);
+  for (const r of csvOrder) for (const w of sweepWarnings(r.ranked.points, maxCycles, r.label, plan.base.model)) io.stderr.write(`${w}\n`);
   if (band.note) io.stderr.write(`note: ${band.note}\n`);
   const best = rows[0];
   if (best) for (const w of edgeWarnings(axes, edges, best.typed, extras.ends)) io.stderr.write(`${w}\n`);
@@ -846,9 +850,15 @@ examples
 
     const raw = parseYamlText(await readCaseText(file!, io.cwd), file!);
     const request: TuneRequest = { vary: args.list('vary'), set: args.list('set'), rpm: args.string('rpm') ?? null, band: args.string('band') ?? null };
-    const plan = planTune(raw, basename(file!), request);
+    const plan = planTune(raw, basename(file!), request, args.flag('allow-extreme'));
     // the varied paths exist and the first design is a valid case, before any simulation
-    designCase(plan, designAt(axes, 0).sets);
+    const first = designCase(plan, designAt(axes, 0).sets);
+    // and the whole run is not estimated beyond the limit (--allow-long)
+    {
+      const designs = searching ? budget : shard !== undefined ? shardSize(total, shard) : total;
+      const one = engineCost(first.model, plan.grid.values);
+      checkCost(combinedCost(new Array<typeof one>(designs).fill(one), jobs), first.model, args, '--vary');
+    }
     const report = { json: args.flag('json'), csv, force: args.flag('force') };
     if (searching) return runSearch(plan, budget, jobs, io, report);
 
