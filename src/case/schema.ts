@@ -11,7 +11,7 @@
  */
 import { z } from 'zod';
 import type { ResonatorModel, SchemeName } from '../core/model.js';
-import { DEFAULT_SCHEME as CORE_DEFAULT_SCHEME } from '../core/index.js';
+import { DEFAULT_SCHEME as CORE_DEFAULT_SCHEME, characteristicsRangeIssue } from '../core/index.js';
 import { parseQuantity, MODEL_UNIT, type QuantityKind } from './units.js';
 import { ALTITUDE_LIMITS, standardAtmosphere } from '../core/atmosphere.js';
 import { BENCH_DEFAULTS } from './flow-sheet.js';
@@ -607,6 +607,10 @@ export const pipeCaseSchema = z
     const cn = c.numerics.courant;
     if (!(cn > 0 && cn <= 1)) issue(['numerics', 'courant'], `must be in (0, 1], got ${cn}`);
     if (c.pipe.meshSize > c.pipe.length / 2) issue(['pipe', 'meshSize'], `must be at most half the pipe length, got ${c.pipe.meshSize} m`);
+    if (c.numerics.scheme === 'characteristics') {
+      const beyond = characteristicsRangeIssue(c.initial.left, c.initial.right);
+      if (beyond) issue(['numerics', 'scheme'], beyond);
+    }
   });
 
 export type PipeCaseInput = z.input<typeof pipeCaseSchema>;

@@ -6,6 +6,7 @@
  */
 import { buildMesh } from './pipe/mesh.js';
 import { createPipeScheme } from './pipe/factory.js';
+import { characteristicsRangeIssue } from './pipe/moc.js';
 import { closedEnd } from './boundary/closed.js';
 import { OpenEnd } from './boundary/open.js';
 import type { Boundary } from './boundary/types.js';
@@ -21,18 +22,10 @@ export function runPipeExperiment(model: PipeExperimentModel): PipeExperimentRes
     heatTransfer: pipe.wallHeatTransfer,
     wallTemperature: pipe.wallTemperature,
   });
+  const beyond = numerics.scheme === 'characteristics' ? characteristicsRangeIssue(initial.left, initial.right) : undefined;
+  if (beyond) throw new SimulationError('invalid', `numerics.scheme: ${beyond}`);
   const n = mesh.n;
-  const p0 = new Float64Array(n);
-  const u0 = new Float64Array(n);
-  const T0 = new Float64Array(n);
-  const xs = initial.split * pipe.length;
-  for (let i = 0; i < n; i++) {
-    const s = mesh.x[i]! < xs || (mesh.x[i]! === xs && i === 0) ? initial.left : initial.right;
-    p0[i] = s.pressure;
-    u0[i] = s.velocity;
-    T0[i] = s.temperature;
-  }
-  scheme.setState(p0, u0, T0);
+  scheme.setSplit(initial.split * pipe.length, initial.left, initial.right);
   const left: Boundary = ends.left === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.left.pressure, temperature: initial.left.temperature }, 0);
   const right: Boundary = ends.right === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.right.pressure, temperature: initial.right.temperature }, 0);
   const between = new PipeBetween(scheme, left, right);

@@ -72,6 +72,7 @@ describe('bad input: exit 2, one line naming the field', () => {
     ['a pipe case given to run', () => ['run', 'cases/pipe-sod.yaml'], 'cases/pipe-sod.yaml', 'tractwave pipe'],
     ['an engine case given to pipe', () => ['pipe', demo], demo, 'tractwave run'],
     ['pipe split outside 0..1', () => ['pipe', 'cases/pipe-pulse.yaml', '--set', 'initial.split=2'], 'initial.split', 'between 0 and 1'],
+    ['a split beyond what the characteristics scheme is checked for', () => ['pipe', 'cases/pipe-sod.yaml', '--set', 'numerics.scheme=characteristics', '--set', 'initial.right.pressure=10Pa'], 'numerics.scheme', 'pressure ratio of 1000, this one is 10000'],
     ['csv over an existing file', () => ['run', demo, '--csv', join(dir, 'existing.csv')], '--csv', '--force'],
   ])('%s', async (_label, argv, path, message) => {
     const r = await cli(argv());

@@ -11,7 +11,9 @@
  * update is non-homentropic (entropy levels along path lines), and there the
  * drift has the other sign and a smaller size — but it shows the same
  * defect: growing with the pressure ratio and not shrinking with the mesh.
- * The conservative correction (moc.ts) removes it to round-off.
+ * "uncorrected" is that plain mesh method (moc-plain.ts); "corrected" is the
+ * characteristics scheme in conservation form (moc.ts), which keeps the mass
+ * to round-off.
  */
 import { describe, expect, it } from 'vitest';
 import { buildMesh } from '../../src/core/pipe/mesh.js';

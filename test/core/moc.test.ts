@@ -73,29 +73,33 @@ describe('Sod shock tube through the characteristics pipe solver (Sod 1978; Toro
 });
 
 describe("Toro's tests 3 and 4 through the pipe solver (Toro 2009 Table 4.3)", () => {
-  // Strong shocks: the conservative scheme is the pipe solver for these
-  // (the characteristics scheme treats a shock as an isentropic compression).
+  // Strong shocks (pressure ratios 1e5 and 1e4): the characteristics scheme
+  // meets them with the jump conditions at the faces (moc.ts), so both
+  // schemes must land on the exact star state. These ratios lie beyond the
+  // range the pipe lab accepts for the characteristics scheme (1000, set by
+  // hot thin gas failing at 1e4; moc.ts header), so the scheme is driven
+  // directly here.
   it.each([
-    ['test 3', 1000, 1, 0.01, 1, 0.012, 460.894, 19.5975],
-    ['test 4', 0.01, 1, 100, 1, 0.035, 46.095, -6.19633],
-  ])('%s: star pressure and velocity within 2 %% (conservative scheme)', (_n, pl, rl, pr, rr, tt, pStar, uStar) => {
-    const { model } = riemannCase(pl, rl, pr, rr, tt, 'conservative', 0.002);
-    const res = runPipeExperiment(model);
-    const s = res.snapshots[0]!;
+    ['test 3', 'conservative', 1000, 1, 0.01, 1, 0.012, 460.894, 19.5975],
+    ['test 4', 'conservative', 0.01, 1, 100, 1, 0.035, 46.095, -6.19633],
+    ['test 3', 'characteristics', 1000, 1, 0.01, 1, 0.012, 460.894, 19.5975],
+    ['test 4', 'characteristics', 0.01, 1, 100, 1, 0.035, 46.095, -6.19633],
+  ] as const)('%s, %s scheme: star pressure and velocity within 2 per cent', (_n, scheme, pl, rl, pr, rr, tt, pStar, uStar) => {
+    const { model, t } = riemannCase(pl, rl, pr, rr, tt, scheme, 0.002);
+    const mesh = buildMesh([{ length: 1, diameterStart: 0.05, diameterEnd: 0.05 }], 0.002);
+    const s = createPipeScheme(scheme, mesh, { friction: 0, heatTransfer: false, wallTemperature: 300 });
+    s.setSplit(0.5, model.initial.left, model.initial.right);
+    drive(s, closedEnd, closedEnd, t);
+    const p = new Float64Array(mesh.n);
+    const u = new Float64Array(mesh.n);
+    const T = new Float64Array(mesh.n);
+    s.sample(p, u, T);
     const U = Math.sqrt(1e5);
     const exact = solveRiemann({ rho: rl, u: 0, p: pl }, { rho: rr, u: 0, p: pr });
     const c = 0.5 + tt * exact.uStar; // contact position
-    const star = starValues(res.x, s.pressure.map((v) => v / 1e5), s.velocity.map((v) => v / U), c - 0.02, c + 0.02);
+    const star = starValues(Array.from(mesh.x), Array.from(p, (v) => v / 1e5), Array.from(u, (v) => v / U), c - 0.02, c + 0.02);
     expect(Math.abs(star.p / pStar - 1)).toBeLessThan(0.02);
     expect(Math.abs(star.u / uStar - 1)).toBeLessThan(0.02);
-  });
-  it('documents the limit: the characteristics scheme misses the star pressure of test 3 by more than 20 %', () => {
-    const { model } = riemannCase(1000, 1, 0.01, 1, 0.012, 'characteristics', 0.002);
-    const res = runPipeExperiment(model);
-    const s = res.snapshots[0]!;
-    const c = 0.5 + 0.012 * 19.5975;
-    const star = starValues(res.x, s.pressure.map((v) => v / 1e5), s.velocity, c - 0.05, c - 0.01);
-    expect(Math.abs(star.p / 460.894 - 1)).toBeGreaterThan(0.2);
   });
 });
 

@@ -62,7 +62,7 @@
 import type { EndState, Incoming } from '../boundary/types.js';
 import { CP, G1, GAMMA, P_REF, PEXP, R_AIR } from '../gas.js';
 import type { Mesh } from './mesh.js';
-import type { PipeScheme, PipeWall, Side } from './scheme.js';
+import type { GasState, PipeScheme, PipeWall, Side } from './scheme.js';
 
 const GM1 = GAMMA - 1;
 /** (γ+1)/(2γ), pressure-based wave-speed estimate (Toro 2009 eq. 10.61) */
@@ -323,6 +323,39 @@ export class ConservativeScheme implements PipeScheme {
     this.faceR[1] = p[N]! / (R_AIR * T[N]!);
     this.faceU[1] = u[N]!;
     this.faceP[1] = p[N]!;
+    this.updatePrimitives();
+  }
+
+  /**
+   * `left` for x < xSplit, `right` beyond. The cell the split cuts holds each
+   * side's share (by length, exact for one diameter) of mass, momentum and
+   * energy, so the gas left of the split is exactly ρ_left·F·xSplit (a cell
+   * given the mean of its two end points would put the split at its centre,
+   * up to half a cell away).
+   */
+  setSplit(xSplit: number, left: GasState, right: GasState): void {
+    const N = this.cells;
+    const dx = this.dx;
+    const rl = left.pressure / (R_AIR * left.temperature);
+    const rr = right.pressure / (R_AIR * right.temperature);
+    const el = left.pressure / GM1 + 0.5 * rl * left.velocity * left.velocity;
+    const er = right.pressure / GM1 + 0.5 * rr * right.velocity * right.velocity;
+    for (let i = 0; i < N; i++) {
+      let w = (xSplit - i * dx) / dx;
+      w = w < 0 ? 0 : w > 1 ? 1 : w;
+      const F = this.Fc[i]!;
+      this.m[i] = (w * rl + (1 - w) * rr) * F;
+      this.mo[i] = (w * rl * left.velocity + (1 - w) * rr * right.velocity) * F;
+      this.en[i] = (w * el + (1 - w) * er) * F;
+    }
+    const s0 = xSplit > 0 ? left : right;
+    const s1 = xSplit < this.mesh.length ? right : left;
+    this.faceR[0] = s0.pressure / (R_AIR * s0.temperature);
+    this.faceU[0] = s0.velocity;
+    this.faceP[0] = s0.pressure;
+    this.faceR[1] = s1.pressure / (R_AIR * s1.temperature);
+    this.faceU[1] = s1.velocity;
+    this.faceP[1] = s1.pressure;
     this.updatePrimitives();
   }
 

@@ -33,6 +33,20 @@ export interface PipeScheme {
   fill(pressure: number, velocity: number, temperature: number): void;
   /** set state per point from arrays at mesh.x */
   setState(p: ArrayLike<number>, u: ArrayLike<number>, T: ArrayLike<number>): void;
+  /**
+   * set `left` for x < xSplit [m] and `right` beyond (a diaphragm at
+   * xSplit): the one volume the split cuts holds each side's share of
+   * mass, momentum and energy, so the split sits at xSplit, not at a mesh
+   * point or a cell centre near it
+   */
+  setSplit(xSplit: number, left: GasState, right: GasState): void;
+}
+
+/** a uniform gas state: pressure [Pa], velocity along +x [m/s], temperature [K] */
+export interface GasState {
+  pressure: number;
+  velocity: number;
+  temperature: number;
 }
 
 export interface PipeWall {
