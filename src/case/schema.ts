@@ -570,6 +570,29 @@ const sideState = z.strictObject({
   velocity: q('velocity').default(0),
 });
 
+/**
+ * A pipe-case end: `closed`, `open` (to a reservoir at that side's initial
+ * state), or a closed 0-D volume the pipe opens into: `{ volume, pressure?,
+ * temperature? }` (its initial state; default: that side's initial state).
+ */
+const volumeEnd = z.strictObject({ volume: q('volume', { positive: true }), pressure: pressure().optional(), temperature: temperature().optional() });
+const pipeEnd = z.unknown().transform((v, ctx): 'closed' | 'open' | z.output<typeof volumeEnd> => {
+  if (v === 'closed' || v === 'open') return v;
+  if (v !== null && typeof v === 'object' && !Array.isArray(v)) {
+    const r = volumeEnd.safeParse(v);
+    if (r.success) return r.data;
+    for (const iss of r.error.issues) {
+      const path = iss.path as (string | number)[];
+      if (iss.code === 'unrecognized_keys') for (const k of iss.keys) ctx.addIssue({ code: 'custom', path: [...path, k], message: `unknown key${didYouMean(k, ['volume', 'pressure', 'temperature'])}` });
+      else ctx.addIssue({ code: 'custom', path, message: iss.message });
+    }
+    return z.NEVER;
+  }
+  const hint = typeof v === 'string' ? didYouMean(v, ['closed', 'open']) : '';
+  ctx.addIssue({ code: 'custom', message: `expected 'closed', 'open' or a volume { volume, pressure?, temperature? }, got ${v === undefined ? 'nothing' : JSON.stringify(v)}${hint}` });
+  return z.NEVER;
+});
+
 export const pipeCaseSchema = z
   .strictObject({
     name: z.string().optional(),
@@ -584,7 +607,7 @@ export const pipeCaseSchema = z
       /** default: the left initial temperature */
       wallTemperature: temperature().optional(),
     }),
-    ends: z.strictObject({ left: oneOf(['closed', 'open'] as const), right: oneOf(['closed', 'open'] as const) }),
+    ends: z.strictObject({ left: pipeEnd, right: pipeEnd }),
     initial: z.strictObject({
       split: q('dimensionless').default(0.5),
       left: sideState,

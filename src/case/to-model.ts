@@ -14,7 +14,7 @@
  * ends lie outside them (see `widenToZeroLift`).
  */
 import type { EngineModel, PipeModel, RunnerSection, TablePoint, ValveModel } from '../core/model.js';
-import type { PipeExperimentModel } from '../core/pipe-experiment-model.js';
+import type { PipeEndModel, PipeExperimentModel } from '../core/pipe-experiment-model.js';
 import { DEFAULT_CD_TABLE, valveLift } from '../core/valve.js';
 import { CaseError } from './errors.js';
 import type { Case, PipeCase } from './schema.js';
@@ -213,6 +213,12 @@ export function toEngineModel(c: Case, fallbackName = 'case'): EngineModel {
   };
 }
 
+/** A pipe-case end; a volume end starts at its own state or, by default, at that side's initial state. */
+function pipeEndModel(end: PipeCase['ends']['left'], side: { pressure: number; temperature: number }): PipeEndModel {
+  if (end === 'closed' || end === 'open') return end;
+  return { volume: end.volume, pressure: end.pressure ?? side.pressure, temperature: end.temperature ?? side.temperature };
+}
+
 /** Build the core's pipe-experiment model from a validated pipe case. */
 export function toPipeModel(c: PipeCase, fallbackName = 'pipe'): PipeExperimentModel {
   return {
@@ -226,7 +232,7 @@ export function toPipeModel(c: PipeCase, fallbackName = 'pipe'): PipeExperimentM
       wallHeatTransfer: c.pipe.wallHeatTransfer,
       wallTemperature: c.pipe.wallTemperature ?? c.initial.left.temperature,
     },
-    ends: { left: c.ends.left, right: c.ends.right },
+    ends: { left: pipeEndModel(c.ends.left, c.initial.left), right: pipeEndModel(c.ends.right, c.initial.right) },
     initial: {
       split: c.initial.split,
       left: { ...c.initial.left },

@@ -11,6 +11,8 @@ export interface PipeSideState {
   velocity: number;
 }
 
+export type PipeEndModel = 'closed' | 'open' | { volume: number; pressure: number; temperature: number };
+
 export interface PipeExperimentModel {
   name: string;
   pipe: {
@@ -23,8 +25,12 @@ export interface PipeExperimentModel {
     wallHeatTransfer: boolean;
     wallTemperature: number;
   };
-  /** 'open' opens that end to a reservoir at the initial state of that side */
-  ends: { left: 'closed' | 'open'; right: 'closed' | 'open' };
+  /**
+   * 'open' opens that end to a reservoir at the initial state of that side;
+   * a volume end is a closed 0-D volume [m³] the pipe opens into, starting at
+   * its own pressure and temperature
+   */
+  ends: { left: PipeEndModel; right: PipeEndModel };
   initial: { split: number; left: PipeSideState; right: PipeSideState };
   /** sample times [s], increasing */
   times: number[];
@@ -38,10 +44,21 @@ export interface PipeSnapshot {
   temperature: number[];
 }
 
+/** The pressure in a volume end over the run, at most a few hundred samples. */
+export interface VolumeTrace {
+  side: 'left' | 'right';
+  /** [s] */
+  time: number[];
+  /** [Pa] */
+  pressure: number[];
+}
+
 export interface PipeExperimentResult {
   x: number[];
   snapshots: PipeSnapshot[];
-  /** total gas mass at each snapshot [kg] */
+  /** total gas mass at each snapshot [kg] (the pipe and any volume ends) */
   mass: number[];
+  /** the volume ends' pressure against time; empty without volume ends */
+  volumes: VolumeTrace[];
   stats: { nodes: number; steps: number; scheme: SchemeName };
 }

@@ -1,55 +1,106 @@
 /**
- * The bare pipe experiment: a straight pipe, each end closed or open to a
- * reservoir at the initial state of its side, a two-state initial split at
+ * The bare pipe experiment: a straight pipe, each end closed, open to a
+ * reservoir at the initial state of its side, or opening into a closed 0-D
+ * volume (a Helmholtz resonator's cavity), a two-state initial split at
  * x = split·L, advanced at the CFL step and sampled at the requested times
  * (each step is shortened to land on a sample time).
+ *
+ * It is a network of one pipe (core/network), stepped by the same stepper as
+ * the engine. Unlike the engine's pipes, the lab's pipe has no acoustic end
+ * corrections: it is exactly its length, so a shock tube compares with the
+ * exact solution and a volume end rings at the lumped Helmholtz frequency
+ * of the bare pipe, f = (a/2π)·√(S/(V·L)), less a little for the pipe's own
+ * volume.
  */
-import { buildMesh } from './pipe/mesh.js';
-import { createPipeScheme } from './pipe/factory.js';
 import { characteristicsRangeIssue } from './pipe/moc.js';
-import { closedEnd } from './boundary/closed.js';
-import { OpenEnd } from './boundary/open.js';
-import type { Boundary } from './boundary/types.js';
-import { PipeBetween } from './pipe/between.js';
-import { SimulationError } from './engine.js';
-import type { PipeExperimentModel, PipeExperimentResult, PipeSnapshot } from './pipe-experiment-model.js';
+import { SimulationError } from './errors.js';
+import { Network } from './network/network.js';
+import type { ConnectorSpec, StepContext, VolumeSpec } from './network/types.js';
+import type { PipeEndModel, PipeExperimentModel, PipeExperimentResult, PipeSnapshot, VolumeTrace } from './pipe-experiment-model.js';
+
+/** samples kept of each volume's pressure over the run */
+const VOLUME_SAMPLES = 400;
 
 export function runPipeExperiment(model: PipeExperimentModel): PipeExperimentResult {
   const { pipe, ends, initial, numerics } = model;
-  const mesh = buildMesh([{ length: pipe.length, diameterStart: pipe.diameter, diameterEnd: pipe.diameter }], pipe.meshSize);
-  const scheme = createPipeScheme(numerics.scheme, mesh, {
-    friction: pipe.wallFriction ? pipe.friction : 0,
-    heatTransfer: pipe.wallHeatTransfer,
-    wallTemperature: pipe.wallTemperature,
-  });
   const beyond = numerics.scheme === 'characteristics' ? characteristicsRangeIssue(initial.left, initial.right) : undefined;
   if (beyond) throw new SimulationError('invalid', `numerics.scheme: ${beyond}`);
-  const n = mesh.n;
+
+  const volumes: VolumeSpec[] = [];
+  const connectors: ConnectorSpec[] = [];
+  const join = (side: 'left' | 'right', end: PipeEndModel) => {
+    const state = side === 'left' ? initial.left : initial.right;
+    const ref = { pipe: 'pipe', side };
+    if (end === 'closed') connectors.push({ kind: 'closed', name: `${side} end`, end: ref });
+    else if (end === 'open') {
+      volumes.push({ kind: 'reservoir', name: `${side} reservoir`, pressure: state.pressure, temperature: state.temperature, burned: 0 });
+      connectors.push({ kind: 'open', name: `${side} end`, end: ref, volume: `${side} reservoir`, entryLoss: 0 });
+    } else {
+      volumes.push({ kind: 'chamber', name: `${side} volume`, volume: end.volume, pressure: end.pressure, temperature: end.temperature });
+      connectors.push({ kind: 'open', name: `${side} end`, end: ref, volume: `${side} volume`, entryLoss: 0 });
+    }
+  };
+  join('left', ends.left);
+  join('right', ends.right);
+  const net = new Network({
+    pipes: [
+      {
+        name: 'pipe',
+        sections: [{ length: pipe.length, diameterStart: pipe.diameter, diameterEnd: pipe.diameter }],
+        wall: { friction: pipe.wallFriction ? pipe.friction : 0, heatTransfer: pipe.wallHeatTransfer, wallTemperature: pipe.wallTemperature },
+        extend: { left: 0, right: 0 },
+        nativeBurned: 0,
+        initial: { pressure: initial.left.pressure, temperature: initial.left.temperature },
+      },
+    ],
+    volumes,
+    connectors,
+    numerics: { meshSize: pipe.meshSize, scheme: numerics.scheme },
+  });
+  const scheme = net.pipe('pipe').scheme;
+  const n = scheme.mesh.n;
   scheme.setSplit(initial.split * pipe.length, initial.left, initial.right);
-  const left: Boundary = ends.left === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.left.pressure, temperature: initial.left.temperature }, 0);
-  const right: Boundary = ends.right === 'closed' ? closedEnd : new OpenEnd({ pressure: initial.right.pressure, temperature: initial.right.temperature }, 0);
-  const between = new PipeBetween(scheme, left, right);
+
+  const volumeEnds = (['left', 'right'] as const).filter((side) => typeof ends[side] === 'object');
+  const traces: VolumeTrace[] = volumeEnds.map((side) => ({ side, time: [], pressure: [] }));
+  const ofSide = volumeEnds.map((side) => net.volume(`${side} volume`));
+  const times = [...model.times].sort((a, b) => a - b);
+  const tEnd = times[times.length - 1] ?? 0;
+  const every = tEnd / VOLUME_SAMPLES;
+  let nextSample = 0;
+  const sampleVolumes = (t: number) => {
+    if (traces.length === 0 || t < nextSample - 1e-15) return;
+    traces.forEach((tr, k) => {
+      tr.time.push(t);
+      tr.pressure.push(ofSide[k]!.pressure);
+    });
+    nextSample += every;
+  };
+
   const snapshots: PipeSnapshot[] = [];
   const mass: number[] = [];
   const p = new Float64Array(n);
   const u = new Float64Array(n);
   const T = new Float64Array(n);
+  const ctx: StepContext = { dt: 0, thetaMid: 0, theta1: 0, rpm: 0 };
   let t = 0;
   let steps = 0;
-  const times = [...model.times].sort((a, b) => a - b);
+  sampleVolumes(0);
   for (const target of times) {
     while (t < target - 1e-15) {
-      let dt = scheme.maxStableDt(numerics.courant);
+      let dt = net.maxStableDt(numerics.courant);
       if (!(dt > 0) || !Number.isFinite(dt)) throw new SimulationError('diverged', `the pipe solver diverged at t = ${t} s (CFL step not finite)`);
       if (t + dt > target) dt = target - t;
-      between.step(dt);
+      ctx.dt = dt;
+      net.step(ctx);
       t += dt;
       steps++;
-      if ((steps & 63) === 0 && !scheme.healthy()) throw new SimulationError('diverged', `the pipe solver diverged at t = ${t} s`);
+      sampleVolumes(t);
+      if ((steps & 63) === 0 && !net.healthy()) throw new SimulationError('diverged', `the pipe solver diverged at t = ${t} s`);
     }
     scheme.sample(p, u, T);
     snapshots.push({ time: target, pressure: Array.from(p), velocity: Array.from(u), temperature: Array.from(T) });
-    mass.push(scheme.mass());
+    mass.push(net.mass());
   }
-  return { x: Array.from(mesh.x), snapshots, mass, stats: { nodes: n, steps, scheme: scheme.name } };
+  return { x: Array.from(scheme.mesh.x), snapshots, mass, volumes: traces, stats: { nodes: n, steps, scheme: scheme.name } };
 }

@@ -72,3 +72,20 @@ describe('the parts in the outputs', () => {
     expect(j.designs[0].meanVolumetricEfficiency).not.toBe(j.designs[1].meanVolumetricEfficiency);
   });
 });
+
+describe('the pipe lab rings a volume', () => {
+  it('pipe on cases/pipe-helmholtz.yaml: the box rings near the formula, and --json has the volume trace', async () => {
+    const text = await cli(['pipe', 'cases/pipe-helmholtz.yaml']);
+    expect(text.code, text.err).toBe(0);
+    const m = /right volume: .* ringing at ([\d.]+) Hz \(Helmholtz .*: ([\d.]+) Hz\)/.exec(text.out);
+    expect(m, text.out).not.toBeNull();
+    expect(Math.abs(Number(m![1]) / Number(m![2]) - 1)).toBeLessThan(0.05);
+    const r = await cli(['pipe', 'cases/pipe-helmholtz.yaml', '--json']);
+    const j = JSON.parse(r.out);
+    expect(j.volumes).toHaveLength(1);
+    expect(j.volumes[0].side).toBe('right');
+    expect(j.volumes[0].pressure.length).toBe(j.volumes[0].time.length);
+    const sod = JSON.parse((await cli(['pipe', 'cases/pipe-sod.yaml', '--json'])).out);
+    expect('volumes' in sod).toBe(false);
+  });
+});

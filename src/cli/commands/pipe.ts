@@ -2,7 +2,10 @@
 import { printable } from '../../case/printable.js';
 import { performance } from 'node:perf_hooks';
 import { runPipeExperiment } from '../../core/pipe-experiment.js';
-import type { PipeExperimentResult } from '../../core/pipe-experiment-model.js';
+import type { PipeEndModel, PipeExperimentResult } from '../../core/pipe-experiment-model.js';
+import { soundSpeed } from '../../core/gas.js';
+import { helmholtzResonator } from '../../analysis/estimates.js';
+import { zeroCrossingFrequency } from '../../analysis/ringing.js';
 import { loadPipeCase, type LoadedPipeCase } from '../../case/load.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
 import { ALLOW_LONG_OPTION, SET_OPTION, type Command } from '../command.js';
@@ -20,13 +23,38 @@ const OPTIONS: OptionSpec[] = [
 const TABLE_ROWS = 11;
 
 export function pipeJson(r: PipeExperimentResult, wallSeconds: number) {
-  return { x: r.x, snapshots: r.snapshots, mass: r.mass, stats: { ...r.stats, wallSeconds } };
+  return { x: r.x, snapshots: r.snapshots, mass: r.mass, ...(r.volumes.length > 0 ? { volumes: r.volumes } : {}), stats: { ...r.stats, wallSeconds } };
+}
+
+/** an end in words: "closed", "open", "a 3 L volume" */
+function endWords(end: PipeEndModel): string {
+  return typeof end === 'string' ? end : `into a ${fix(end.volume * 1000, 2)} L volume`;
+}
+
+/** What a volume end did: its pressure range, its ringing against the bare-pipe Helmholtz formula. */
+export function volumeLines(m: LoadedPipeCase['model'], r: PipeExperimentResult): string {
+  let s = '';
+  for (const v of r.volumes) {
+    const end = m.ends[v.side];
+    if (typeof end !== 'object') continue;
+    const lo = Math.min(...v.pressure);
+    const hi = Math.max(...v.pressure);
+    const f = zeroCrossingFrequency(v.time, v.pressure);
+    const area = (Math.PI / 4) * m.pipe.diameter ** 2;
+    const estimate = helmholtzResonator(soundSpeed(end.temperature), area, end.volume, m.pipe.length);
+    s += `
+  ${v.side} volume: ${fix(lo / 1000, 2)}–${fix(hi / 1000, 2)} kPa over the run`;
+    s += Number.isFinite(f)
+      ? `, ringing at ${fix(f, 1)} Hz (Helmholtz (a/2π)·√(S/(V·L)) with the bare pipe: ${fix(estimate, 1)} Hz)\n`
+      : ` (run longer to see it ring: Helmholtz estimate ${fix(estimate, 1)} Hz, a period of ${fix(1000 / estimate, 1)} ms)\n`;
+  }
+  return s;
 }
 
 export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number): string {
   const m = loaded.model;
   let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
-  s += `  pipe ${fix(m.pipe.length, 3)} m x ${fix(m.pipe.diameter * 1000, 1)} mm, ends: left ${m.ends.left}, right ${m.ends.right}; `;
+  s += `  pipe ${fix(m.pipe.length, 3)} m x ${fix(m.pipe.diameter * 1000, 1)} mm, ends: left ${endWords(m.ends.left)}, right ${endWords(m.ends.right)}; `;
   s += `friction ${m.pipe.wallFriction ? 'on' : 'off'}, wall heat transfer ${m.pipe.wallHeatTransfer ? 'on' : 'off'}\n`;
   s += `  initial split at ${fix(m.initial.split * m.pipe.length, 3)} m: left ${fix(m.initial.left.pressure / 1000, 2)} kPa ${fix(m.initial.left.temperature, 1)} K, `;
   s += `right ${fix(m.initial.right.pressure / 1000, 2)} kPa ${fix(m.initial.right.temperature, 1)} K\n`;
@@ -46,6 +74,7 @@ export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wall
       idx.map((i) => [fix(r.x[i]!, 3), fix(p[i]! / 1000, 2), fix(snap.velocity[i]!, 1), fix(snap.temperature[i]!, 1)]),
     );
   });
+  s += volumeLines(m, r);
   s += `\n  ${r.stats.nodes} points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
   return s;
 }
@@ -63,7 +92,9 @@ reflects) and for checking the solver (Sod's shock tube).
 A pipe case:
   pipe:    { length, diameter, meshSize, wallFriction: true,
              wallHeatTransfer: true }
-  ends:    { left: closed | open, right: closed | open }
+  ends:    { left: closed | open | { volume, pressure?, temperature? },
+             right: ... }   (a volume end: a closed 0-D volume the
+             pipe opens into, e.g. a Helmholtz resonator's cavity)
   initial: { split: 0..1, left: { pressure, temperature, velocity },
              right: { ... } }
   times:   [ 0 s, 1 ms, ... ]
@@ -73,7 +104,9 @@ options
 ${optionHelp(OPTIONS)}
 
 --json prints x [m] and snapshots [{time [s], pressure [Pa], velocity [m/s],
-temperature [K]}], plus mass [kg] per snapshot and stats.
+temperature [K]}], plus mass [kg] per snapshot (pipe and volumes), volumes
+[{side, time [s], pressure [Pa]}] for volume ends, and stats. The lab's pipe is
+exactly its length: no acoustic end correction is added at its ends.
 
 examples
   tractwave pipe cases/pipe-sod.yaml
