@@ -109,6 +109,11 @@ async function interactive(argv: readonly string[], io: CliIo): Promise<number> 
     );
     return 2;
   }
+  // Ink draws nothing but the last frame when it believes it runs under CI
+  // (the CI or CONTINUOUS_INTEGRATION variable, read once when Ink loads).
+  // Here stdin and stdout are a terminal and the user asked for the view, so
+  // it is interactive whatever the environment says.
+  for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (key in process.env) process.env[key] = 'false';
   // imported here so that run, sweep and check never load Ink (start-up time)
   const { startUi } = await import('../ui/index.js');
   return startUi(resolve(io.cwd, file), options);

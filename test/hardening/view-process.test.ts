@@ -29,7 +29,8 @@ function viewUntilSignal(signal: NodeJS.Signals): Promise<{ code: number | null;
     const cmd = `"${process.execPath}" --import tsx src/cli/main.ts cases/demo.yaml --allow-long`;
     const child = spawn('script', ['-qfec', cmd, '/dev/null'], {
       cwd: ROOT,
-      env: { ...process.env, TERM: 'xterm-256color', COLUMNS: '80', LINES: '24', NO_COLOR: '1' },
+      // CI set as on a build machine: the view must still draw its frames (Ink alone would hold them back)
+      env: { ...process.env, TERM: 'xterm-256color', COLUMNS: '80', LINES: '24', NO_COLOR: '1', CI: 'true' },
       stdio: ['pipe', 'pipe', 'pipe'],
     });
     let out = '';
