@@ -8,8 +8,6 @@ import { render } from 'ink';
 import { App } from './app.js';
 import { openCase } from './case-session.js';
 import { threadEngine } from './engine-service.js';
-// loaded here so a single-file bundle started as the point worker serves points
-import './worker.js';
 
 export { App } from './app.js';
 export type { AppProps } from './app.js';
