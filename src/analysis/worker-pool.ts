@@ -92,7 +92,8 @@ export class WorkerPool {
   private readonly start: () => Worker;
 
   constructor(options: WorkerPoolOptions = {}) {
-    this.start = options.start ?? (() => startModuleWorker('analysis/worker', SWEEP_WORKER_FLAG, { stderr: true }));
+    // the worker shares this process's stderr: a piped one that is read keeps the process alive, and the worker writes there only when it cannot start
+    this.start = options.start ?? (() => startModuleWorker('analysis/worker', SWEEP_WORKER_FLAG));
   }
 
   /** workers started over the pool's life (a replacement after a crash counts too) */
@@ -175,8 +176,6 @@ export class WorkerPool {
       return;
     }
     this.startedCount++;
-    // a worker's stderr must not write over a terminal view: read and drop it
-    worker.stderr?.resume();
     worker.unref();
     const slot: Slot = { worker, served: false };
     this.slots.push(slot);

@@ -27,6 +27,20 @@ export interface UiOptions {
   allowLong?: boolean;
 }
 
+/**
+ * How the view draws (Ink's render options; bench/pool.ts measures with these).
+ * Over SSH every byte counts: with `incrementalRendering` Ink rewrites only
+ * the lines that changed since the last frame instead of erasing and
+ * writing the whole screen; playing the cycle changes a few columns of most
+ * chart rows, so this roughly halves the bytes per frame (bench/RESULTS.md).
+ */
+export const VIEW_RENDER_OPTIONS = {
+  exitOnCtrlC: false, // ctrl+c is a key like q: the app leaves cleanly
+  patchConsole: true,
+  maxFps: 30,
+  incrementalRendering: true,
+} as const;
+
 export async function startUi(casePath: string, options: UiOptions = {}): Promise<number> {
   const session = await openCase(casePath, options); // a bad case throws CaseError: the CLI prints it, exit 2
   const engine = threadEngine();
@@ -41,11 +55,7 @@ export async function startUi(casePath: string, options: UiOptions = {}): Promis
   if (useAlt) out.write(ENTER_ALT);
   process.once('exit', restore);
 
-  const app = render(<App session={session} engine={engine} />, {
-    exitOnCtrlC: false, // ctrl+c is a key like q: the app leaves cleanly
-    patchConsole: true,
-    maxFps: 30,
-  });
+  const app = render(<App session={session} engine={engine} />, VIEW_RENDER_OPTIONS);
   // a signal leaves as cleanly as q, and the exit code says which signal it was
   let code = 0;
   const handlers = (Object.keys(SIGNAL_EXIT) as (keyof typeof SIGNAL_EXIT)[]).map((sig) => {
