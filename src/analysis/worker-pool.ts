@@ -326,13 +326,15 @@ export function startSweeps(tasks: readonly SweepTask[], options: ParallelSweepO
   };
   const focus = options.focusRpm;
   const remaining = (c: Chain): number => c.cost.slice(c.next).reduce((s, x) => s + x, 0);
+  /** how far the speeds a chain has still to run lie from the focus (0 when they span it) */
+  const gap = (c: Chain, at: number): number => Math.max(0, c.rpms[c.next]! - at, at - c.rpms[c.rpms.length - 1]!);
   /** the free chain to advance next: nearest the focus, else the most work left (ties: first in order) */
   const pick = (): Chain | undefined => {
     let best: Chain | undefined;
     let bestKey = Number.POSITIVE_INFINITY;
     for (const c of chains) {
       if (c.busy || c.next >= c.rpms.length) continue;
-      const key = focus !== undefined ? Math.abs(c.rpms[c.next]! - focus) : -remaining(c);
+      const key = focus !== undefined ? gap(c, focus) : -remaining(c);
       if (key < bestKey) {
         best = c;
         bestKey = key;

@@ -41,6 +41,14 @@ export const VIEW_RENDER_OPTIONS = {
   incrementalRendering: true,
 } as const;
 
+/**
+ * How long the view waits after the last change before running the point
+ * [ms]. Key repeat comes every 30–50 ms, so a held key still runs once at the
+ * end; the point itself takes a few tens of ms on a warm worker, so an edit
+ * shows in about 100 ms (bench/pool.ts).
+ */
+export const VIEW_DEBOUNCE_MS = 40;
+
 export async function startUi(casePath: string, options: UiOptions = {}): Promise<number> {
   const session = await openCase(casePath, options); // a bad case throws CaseError: the CLI prints it, exit 2
   const engine = threadEngine();
@@ -55,7 +63,7 @@ export async function startUi(casePath: string, options: UiOptions = {}): Promis
   if (useAlt) out.write(ENTER_ALT);
   process.once('exit', restore);
 
-  const app = render(<App session={session} engine={engine} />, VIEW_RENDER_OPTIONS);
+  const app = render(<App session={session} engine={engine} debounceMs={VIEW_DEBOUNCE_MS} />, VIEW_RENDER_OPTIONS);
   // a signal leaves as cleanly as q, and the exit code says which signal it was
   let code = 0;
   const handlers = (Object.keys(SIGNAL_EXIT) as (keyof typeof SIGNAL_EXIT)[]).map((sig) => {
