@@ -152,12 +152,15 @@ export function threadEngine(options: ThreadEngineOptions = {}): EngineService &
 
   const nearestState = (model: EngineModel): WarmStart | undefined => {
     if (!neighbours || neighbours.states.size === 0 || neighbours.key !== modelKey(model)) return undefined;
+    // the nearest speed; of two as near, the lower (the states arrive in no fixed order)
     let best: WarmStart | undefined;
+    let bestRpm = Number.POSITIVE_INFINITY;
     let gap = Number.POSITIVE_INFINITY;
     for (const [rpm, state] of neighbours.states) {
       const d = Math.abs(rpm - model.rpm);
-      if (d < gap) {
+      if (d < gap || (d === gap && rpm < bestRpm)) {
         gap = d;
+        bestRpm = rpm;
         best = state;
       }
     }
