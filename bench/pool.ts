@@ -21,6 +21,7 @@
 import { spawnSync } from 'node:child_process';
 import { EventEmitter } from 'node:events';
 import { existsSync } from 'node:fs';
+import os from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -47,6 +48,8 @@ const f = (x: number, d = 2): string => (Number.isFinite(x) ? x.toFixed(d) : 'n/
 
 interface ProcessRun {
   seconds: number;
+  /** the sweep alone, as the command reports it (stats.wallSeconds) */
+  sweepSeconds: number;
   points: string;
 }
 
@@ -55,9 +58,9 @@ function sweepProcess(jobs: number): ProcessRun {
   const r = spawnSync(process.execPath, [BIN, 'sweep', DEMO, '--rpm', RANGE, '--jobs', String(jobs), '--json'], { encoding: 'utf8', timeout: 120_000 });
   const seconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`tractwave sweep --jobs ${jobs} failed (${r.status}): ${r.stderr}`);
-  const json = JSON.parse(r.stdout) as { points: unknown[] };
+  const json = JSON.parse(r.stdout) as { points: unknown[]; stats: { wallSeconds: number } };
   if (json.points.length !== 30) throw new Error(`expected 30 points, got ${json.points.length}`);
-  return { seconds, points: JSON.stringify(json.points) };
+  return { seconds, sweepSeconds: json.stats.wallSeconds, points: JSON.stringify(json.points) };
 }
 
 async function processSection(out: string[]): Promise<void> {
@@ -66,23 +69,27 @@ async function processSection(out: string[]): Promise<void> {
     return;
   }
   const repeats = QUICK ? 2 : 5;
-  const one: number[] = [];
-  const two: number[] = [];
+  const one: ProcessRun[] = [];
+  const two: ProcessRun[] = [];
   let same = true;
+  const load = os.loadavg()[0] ?? Number.NaN;
   for (let k = 0; k < repeats; k++) {
     // alternate, so a disturbance on the machine falls on both
     const a = sweepProcess(1);
     const b = sweepProcess(2);
-    one.push(a.seconds);
-    two.push(b.seconds);
+    one.push(a);
+    two.push(b);
     if (a.points !== b.points) same = false;
   }
-  const best1 = Math.min(...one);
-  const best2 = Math.min(...two);
+  const best = (runs: ProcessRun[], k: 'seconds' | 'sweepSeconds'): number => Math.min(...runs.map((r) => r[k]));
+  const med = (runs: ProcessRun[], k: 'seconds' | 'sweepSeconds'): number => median(runs.map((r) => r[k]));
+  const rest = (runs: ProcessRun[]): number => median(runs.map((r) => r.seconds - r.sweepSeconds));
   out.push(
-    `- \`tractwave sweep\` of 30 points as a whole process (bundle, ${repeats} runs each, best / median): ` +
-      `--jobs 1 ${f(best1)} / ${f(median(one))} s, --jobs 2 ${f(best2)} / ${f(median(two))} s; ` +
-      `two workers ${f(best1 / best2)}× (median ${f(median(one) / median(two))}×; target ≥ 1.7×); points bit-identical: ${same ? 'yes' : 'NO'}`,
+    `- \`tractwave sweep\` of 30 points as a whole process (bundle, ${repeats} runs each, best / median; load average ${f(load, 1)} on ${os.availableParallelism()} cores): ` +
+      `--jobs 1 ${f(best(one, 'seconds'))} / ${f(med(one, 'seconds'))} s, --jobs 2 ${f(best(two, 'seconds'))} / ${f(med(two, 'seconds'))} s; ` +
+      `two workers ${f(best(one, 'seconds') / best(two, 'seconds'))}× (median ${f(med(one, 'seconds') / med(two, 'seconds'))}×; target ≥ 1.7×); points bit-identical: ${same ? 'yes' : 'NO'}`,
+    `- of which the sweep itself (the command's stats.wallSeconds): --jobs 1 ${f(best(one, 'sweepSeconds'))} s, --jobs 2 ${f(best(two, 'sweepSeconds'))} s ` +
+      `(${f(best(one, 'sweepSeconds') / best(two, 'sweepSeconds'))}×); the rest (start-up, case, output; the same for both) ${f(rest(one))} / ${f(rest(two))} s median`,
   );
 }
 
@@ -126,7 +133,7 @@ async function viewSweepSection(out: string[]): Promise<void> {
   const best = (k: 'first' | 'cursor' | 'all'): number => Math.min(...runs.map((r) => r[k]));
   const med = (k: 'first' | 'cursor' | 'all'): number => median(runs.map((r) => r[k]));
   out.push(
-    `- the view's sweep after an edit (${plan.length} points, ${built ? 'compiled' : 'sources'}, pool kept warm, ${runs.length} edits, best / median): ` +
+    `- the view's sweep after an edit (${plan.length} points, ${built ? 'compiled' : 'sources'}, pool kept warm, ${runs.length} edits of the runner length, best / median; load average ${f(os.loadavg()[0] ?? Number.NaN, 1)}): ` +
       `first point ${f(best('first'), 0)} / ${f(med('first'), 0)} ms, the point at the view's speed ${f(best('cursor'), 0)} / ${f(med('cursor'), 0)} ms, ` +
       `the whole curve ${f(best('all'), 0)} / ${f(med('all'), 0)} ms (target ≤ 1000 ms); workers up ${ready ? `in ${f(startMs, 0)} ms` : 'NOT (ran on this thread)'}`,
   );
