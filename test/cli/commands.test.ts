@@ -121,7 +121,7 @@ describe('check: derived geometry and hand estimates', async () => {
   });
   it('Helmholtz estimate f = (a/2π)·√(A/(L·Veff)), Veff = (Vd/2)(rc+1)/(rc−1) (Engelman 1973; form and constants from memory): 202.3 Hz', () => {
     // worked by hand: a 343.23 m/s, A = π · 20² mm², L 0.3 m, Vd 499.557 cm³, Veff = 305.285 cm³ → 202.35 Hz
-    expect(r.out).toMatch(/Helmholtz \(Engelman\)\s+202\.3 Hz/);
+    expect(r.out).toMatch(/Helmholtz, runner\+cylinder\s+202\.3 Hz/);
   });
   it('shows the events as card and as θ', () => {
     expect(r.out).toContain('opens 30.0° BTDC, closes 60.0° ABDC');

@@ -328,7 +328,7 @@ export function estimateLines(e: CaseEstimates, bestRpm: number): string[] {
     lines.push(`  the simulated best speed is ${fix(Math.abs(off), 1)} % ${off >= 0 ? 'above' : 'below'} the order-${nearest.order} quarter-wave speed`);
   }
   lines.push(
-    `  Helmholtz estimate (Engelman form, constants from memory): ${fix(e.helmholtz.frequency, 1)} Hz, peak near ${fix(e.helmholtz.peakRpm, 0)} rpm`,
+    `  Helmholtz estimate (the runner as the neck of a resonator whose volume is the cylinder at mid-stroke): ${fix(e.helmholtz.frequency, 1)} Hz, peak near 30·f = ${fix(e.helmholtz.peakRpm, 0)} rpm`,
   );
   if (e.plenumFrequency !== null) lines.push(`  plenum resonating through its feed: ${fix(e.plenumFrequency, 1)} Hz`);
   return lines;
