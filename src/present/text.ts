@@ -83,10 +83,16 @@ export function wrap(text: string, width = 78, indent = '    '): string {
   return lines.map((l, i) => (i === 0 ? l : indent + l)).join('\n') + '\n';
 }
 
-/** a plain table of string cells, right-aligned except the first column */
-export function table(header: readonly string[], rows: readonly (readonly string[])[]): string {
-  const widths = header.map((h, j) => Math.max(h.length, ...rows.map((r) => (r[j] ?? '').length)));
+/**
+ * A plain table of string cells, right-aligned except the first column. The
+ * header may be one row, or several (`[words, units]`) so that the columns
+ * can be spelt out without widening the table.
+ */
+export function table(header: readonly string[] | readonly (readonly string[])[], rows: readonly (readonly string[])[]): string {
+  const heads: readonly (readonly string[])[] = typeof header[0] === 'string' || header.length === 0 ? [header as readonly string[]] : (header as readonly (readonly string[])[]);
+  const n = Math.max(...heads.map((h) => h.length));
+  const widths = Array.from({ length: n }, (_, j) => Math.max(...heads.map((h) => (h[j] ?? '').length), ...rows.map((r) => (r[j] ?? '').length)));
   const line = (cells: readonly string[]) =>
-    '  ' + cells.map((c, j) => (j === 0 ? c.padEnd(widths[j]!) : c.padStart(widths[j]!))).join('  ') + '\n';
-  return line(header) + rows.map(line).join('');
+    ('  ' + widths.map((wd, j) => (j === 0 ? (cells[j] ?? '').padEnd(wd) : (cells[j] ?? '').padStart(wd))).join('  ')).trimEnd() + '\n';
+  return heads.map(line).join('') + rows.map(line).join('');
 }

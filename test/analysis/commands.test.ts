@@ -148,16 +148,16 @@ describe('compare', () => {
 });
 
 describe('tune --csv', () => {
-  it('writes one row per design and speed, the varied value in the unit typed', async () => {
+  it('writes one row per design and speed in SI, the header naming each unit (the varied value too)', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'tw-tune-'));
     const r = await cli(['tune', DEMO, '--vary', 'runner.length=300mm:400mm:100mm', '--rpm', '6000:7000:500', ...FAST, '--csv', 't.csv'], dir);
     expect(r.code).toBe(0);
     const lines = readFileSync(join(dir, 't.csv'), 'utf8').trim().split('\n');
     expect(lines[0]).toBe(
-      'runner.length [mm],speed [rpm],volumetric efficiency [%],torque estimate [N m],power estimate [kW],converged,band mean volumetric efficiency [%],rank',
+      'runner.length_m,speed_rpm,volumetric_efficiency,torque_estimate_N_m,power_estimate_W,converged,band_mean_volumetric_efficiency,rank',
     );
     expect(lines).toHaveLength(1 + 2 * 3);
-    expect(lines[1]!.startsWith('300,6000,')).toBe(true);
-    expect(lines[6]!.startsWith('400,7000,')).toBe(true);
+    expect(lines[1]!.startsWith('0.3,6000,')).toBe(true);
+    expect(lines[6]!.startsWith('0.4,7000,')).toBe(true);
   });
 });
