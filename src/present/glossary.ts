@@ -225,7 +225,7 @@ export function glossaryEntry(shown: string): GlossaryEntry | undefined {
 export function glossaryLines(width: number): string[] {
   const out: string[] = [];
   for (const e of GLOSSARY) {
-    const shown = e.shown.filter((x) => x !== e.term && x.length <= 12).slice(0, 6);
+    const shown = e.shown.filter((x) => !e.term.includes(x) && x.length <= 12).slice(0, 6);
     out.push(`${e.term}${shown.length ? ` (${shown.join(', ')})` : ''}`);
     let cur = '   ';
     for (const word of e.meaning.split(/\s+/)) {
