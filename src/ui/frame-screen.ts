@@ -96,8 +96,8 @@ export function glossaryPage(width: number, rows: number, scroll = 0): string[] 
   const more = first + room < all.length;
   const title = firstFit(
     [
-      `Words on the screens${more ? ` (${first + 1}–${first + shown.length} of ${all.length} lines, ↓ ↑ scroll)` : ''} — g keys · ? or esc close · q quit`,
-      `Words — ↓ ↑ scroll · g keys · esc close`,
+      `Words on the screens${more || first > 0 ? ` (lines ${first + 1}–${first + shown.length} of ${all.length}, ↓ ↑)` : ''} — g keys · esc close`,
+      'Words on the screens — ↓ ↑ scroll · g keys · esc close',
       'Words',
     ],
     w,

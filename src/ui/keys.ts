@@ -63,8 +63,7 @@ export const HELP: readonly HelpGroup[] = [
       { keys: 'p', what: 'pin as baseline' },
       { keys: 't', what: 'teaching line' },
       { keys: 'm', what: 'measured data on/off' },
-      { keys: 'u', what: 'metric / imperial' },
-      { keys: '? g', what: 'glossary (words)' },
+      { keys: 'u  ? g', what: 'units / glossary' },
     ],
   },
   {
