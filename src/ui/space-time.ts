@@ -17,7 +17,8 @@ import { crankBins } from './chart.js';
 /** Shades for pressure above ambient, weak → strong. */
 export const ABOVE = ['░', '▒', '▓', '█'] as const;
 /** Shades for pressure below ambient, weak → strong. */
-export const BELOW = ['·', ':', '-', '='] as const;
+export const BELOW = ['·', ':', '~', '='] as const;
+// (not '-': beside a negative value in the legend it read as a double minus, "- −6.0")
 export const NEAR = ' ';
 
 export interface MapInput {

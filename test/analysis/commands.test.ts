@@ -79,7 +79,7 @@ describe('sweep', () => {
     expect(j.estimates.quarterWaveFrequency).toBeGreaterThan(0);
   });
 
-  it('--csv writes a header with units, refuses to overwrite without --force', async () => {
+  it('--csv writes SI values under a header whose names end in the unit, as run --csv does; refuses to overwrite without --force', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'tw-sweep-'));
     const argv = ['sweep', DEMO, '--rpm', '6000:7000:500', ...FAST, '--csv', 'out.csv'];
     const r = await cli(argv, dir);
@@ -87,8 +87,14 @@ describe('sweep', () => {
     const text = readFileSync(join(dir, 'out.csv'), 'utf8');
     const lines = text.trim().split('\n');
     expect(lines).toHaveLength(4);
-    expect(lines[0]).toMatch(/^speed \[rpm\],volumetric efficiency \[%\],torque estimate \[N m\],power estimate \[kW\]/);
-    expect(lines[1]!.split(',')[0]).toBe('6000');
+    expect(lines[0]).toMatch(/^speed_rpm,volumetric_efficiency,torque_estimate_N_m,power_estimate_W,mass_imbalance,converged,cycles,trapped_mass_kg,residual_fraction,ivc_cylinder_pressure_Pa,valve_pressure_at_ivc_vs_reference_Pa,/);
+    const cells = lines[1]!.split(',');
+    expect(cells[0]).toBe('6000');
+    // SI: ηv a fraction near 1, the trapped mass in kg (a 450 cc single: under a gram), the IVC pressure in Pa
+    expect(Number(cells[1])).toBeGreaterThan(0.5);
+    expect(Number(cells[1])).toBeLessThan(2);
+    expect(Number(cells[7])).toBeLessThan(1e-3);
+    expect(Number(cells[9])).toBeGreaterThan(5e4);
     writeFileSync(join(dir, 'out.csv'), 'mine\n');
     const again = await cli(argv, dir);
     expect(again.code).toBe(2);

@@ -160,7 +160,9 @@ describe('pipe: Sod shock tube through the command (Toro 2009, Table 4.3)', asyn
   it('text output shows a table per snapshot', async () => {
     const t = await cli(['pipe', 'cases/pipe-pulse.yaml']);
     expect(t.code).toBe(0);
-    expect(t.out.match(/x \[m\]\s+p \[kPa\]\s+u \[m\/s\]\s+T \[K\]/g)).toHaveLength(6);
+    expect(t.out.match(/x \[m\]\s+p \[kPa\]\s+u \[m\/s\]\s+T \[°C\]/g)).toHaveLength(6);
+    const imperial = await cli(['pipe', 'cases/pipe-pulse.yaml', '--units', 'imperial']);
+    expect(imperial.out.match(/x \[in\]\s+p \[psi\]\s+u \[ft\/s\]\s+T \[°F\]/g)).toHaveLength(6);
   });
 });
 

@@ -22,7 +22,7 @@ describe('imperial units: NIST SP 811 (2008) Appendix B factors', () => {
     ['massFlow', 0.45359237 / 60, 1, 'pound (avoirdupois) = 0.45359237 kg exactly (B.8), per minute'],
     ['smallVolume', 16.387064e-6, 1, 'cubic inch = 1.6387064 × 10⁻⁵ m³ exactly (B.8): ci'],
     ['mass', 6.479891e-5, 1, 'grain = 6.479891 × 10⁻⁵ kg exactly (B.8)'],
-  ] as const)('%s: %s SI shows as %s (%s)', (q, si, shown) => {
+  ] as const)('%s: %s SI shows as %s (%s)', (q, si, shown, _source) => {
     expect(IMPERIAL.num(q, si)).toBeCloseTo(shown, 5);
   });
 

@@ -240,7 +240,7 @@ export function curveChart(rpms: readonly number[], series: readonly ChartSeries
     min -= 1;
     max += 1;
   }
-  const cfg = { height: CHART_HEIGHT, min, max, format: (x: number) => x.toFixed(1).padStart(7) };
+  const cfg = { height: CHART_HEIGHT, min, max, format: (x: number) => fix(x, 1).padStart(7) };
   const grids = series.map((s, i) =>
     asciichart.plot(resample(s.values, width), i === 0 ? cfg : { ...cfg, symbols: DOT_SYMBOLS }).split('\n'),
   );
