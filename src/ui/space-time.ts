@@ -151,10 +151,9 @@ export function mapLines(input: MapInput, grid: MapGrid, step = shadeStep(input)
  * Pa; the values are shown against ambient in the gauge unit (kPa or inHg).
  */
 export function mapLegend(step: number, width: number, u: Units = METRIC): string {
-  const scale = u.num('gauge', 1000);
   const num = (v: number): string => {
     const k = u.num('gauge', v);
-    const digits = Math.abs(k) >= 10 * scale ? 0 : Math.abs(k) >= scale ? 1 : 2;
+    const digits = Math.abs(k) >= 10 ? 0 : Math.abs(k) >= 1 ? 1 : 2;
     return fixed(Math.abs(k), digits);
   };
   const unit = u.label('gauge');
