@@ -198,7 +198,7 @@ examples
       const w = winnerAt(x, y);
       return [fix(rpm, 0), fix(x * 100, 1), fix(y * 100, 1), signed((y - x) * 100, 1), w === 'even' ? '=' : w];
     });
-    io.stdout.write(table(['rpm', 'A ηv %', 'B ηv %', 'B−A pts', 'better'], rows));
+    io.stdout.write(table([['', 'A', 'B', 'B − A', ''], ['rpm', 'ηv %', 'ηv %', 'points', 'better']], rows));
     if (dyno) io.stdout.write(dynoBlockTwo(pa, pb, dyno, u));
     const ma = sa.band.meanVolumetricEfficiency;
     const mb = sb.band.meanVolumetricEfficiency;

@@ -526,7 +526,7 @@ async function writeReport(
     ...extras.extraText,
   ];
   io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n');
-  const header = ['rank', ...axes.map((a) => a.path), 'band mean ηv %', 'peak ηv %', 'at rpm', 'conv'];
+  const header = ['rank', ...axes.map((a) => a.path), 'band mean ηv %', 'peak ηv %', 'at rpm', 'converged'];
   const shown = rows.length <= TABLE_ALL ? rows : rows.slice(0, TABLE_ROWS);
   const cells = shown.map((r) => [
     String(r.ranked.rank),
