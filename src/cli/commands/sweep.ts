@@ -508,9 +508,18 @@ Torque and power are estimates from ηv with an assumed air-fuel ratio, fuel
 heating value and brake efficiency (case key 'estimate': airFuelRatio,
 fuelHeatingValue, brakeEfficiency; defaults 12.8, 44 MJ/kg, 0.28).
 
-The columns 'wave @IVC' and 'peak−IVC °' say whether the pressure wave at the
-valve helps or costs charge when the valve closes, and where the last
-compression peak came (negative: before closing). 'order' is f₁·120/N.
+The columns 'wave at IVC' and 'peak vs IVC °' say whether the pressure wave
+at the valve helps or costs charge when the valve closes, and where the last
+compression peak came (− before closing, + after). 'wave order' is f₁·120/N.
+'mass balance %' is the solver's own check: runner inlet against valve.
+
+--csv FILE writes SI values (ηv as a fraction, torque in N·m, power in W,
+masses in kg, pressures in Pa) under a header whose names end in the unit:
+speed_rpm, volumetric_efficiency, torque_estimate_N_m, power_estimate_W,
+mass_imbalance, converged, cycles, trapped_mass_kg, residual_fraction,
+ivc_cylinder_pressure_Pa, valve_pressure_at_ivc_vs_reference_Pa,
+peak_offset_from_ivc_deg, wave_order, wave_at_ivc. --units changes the text
+only.
 
 Default range: the case key 'sweep {from, to, step}', else ${DEFAULT_SWEEP.from}:${DEFAULT_SWEEP.to}:${DEFAULT_SWEEP.step};
 default band: the case key 'band {from, to}', else the whole range.
