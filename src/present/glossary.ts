@@ -55,6 +55,16 @@ export const GLOSSARY: readonly GlossaryEntry[] = [
     meaning: 'The intake pipe between the plenum (or the open air) and the valve. Its length sets when the pressure waves arrive at the valve.',
   },
   {
+    term: 'exhaust port',
+    shown: ['exh. port', 'exh.', 'exhaust port'],
+    meaning: 'The pressure at the valve end of the exhaust pipe (drawn ∘ beside the intake pressure): below the intake side during overlap it pulls fresh gas through, above it pushes burned gas back.',
+  },
+  {
+    term: 'diameter',
+    shown: ['dia.', 'D'],
+    meaning: 'The inside diameter of a pipe, or the head diameter of a valve.',
+  },
+  {
     term: 'plenum, airbox',
     shown: ['plenum', 'airbox'],
     meaning: 'The box the runner draws from. It is fed from outside through a throttle body or a snorkel.',
@@ -183,6 +193,11 @@ export const GLOSSARY: readonly GlossaryEntry[] = [
     term: 'baseline',
     shown: ['baseline', 'pin', 'pinned', 'before'],
     meaning: 'A result kept to compare with (key p): the traces drawn dim behind the present ones, and the difference in points.',
+  },
+  {
+    term: 'as loaded',
+    shown: ['as loaded'],
+    meaning: 'The case as its file gives it, before any change made in the Case view.',
   },
   {
     term: 'points',

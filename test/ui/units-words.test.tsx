@@ -11,6 +11,13 @@ import { App } from '../../src/ui/app.js';
 import { stripAnsi } from '../../src/ui/text.js';
 import { GLOSSARY, glossaryEntry, UNIT_SYSTEMS, unitOf, type Quantity } from '../../src/present/index.js';
 import { fakeEngine, fakeSession } from './fixtures.js';
+import { loadCase } from '../../src/case/load.js';
+import { simulatePoint } from '../../src/core/engine.js';
+import { pulseTiming } from '../../src/analysis/pulse.js';
+import { valveScreen } from '../../src/ui/valve-screen.js';
+import { runnerScreen } from '../../src/ui/runner-screen.js';
+import { shownPipe } from '../../src/ui/app.js';
+import { units } from '../../src/present/units.js';
 
 const WAIT_MS = 5000;
 const tick = (ms = 10): Promise<void> => new Promise((r) => setTimeout(r, ms));
@@ -75,6 +82,8 @@ function abbreviations(frame: string): Set<string> {
     for (const q of ['length', 'shortLength', 'volume', 'smallVolume', 'pressure', 'gauge', 'barometric', 'temperature', 'torque', 'power', 'massFlow', 'mass', 'area', 'speed'] as Quantity[])
       unitLabels.add(unitOf(s, q).label);
   const found = new Set<string>();
+  // shortened words: "exh. port", "dia." (a short lowercase word with a full stop inside a line)
+  for (const m of frame.matchAll(/(?:^|\s)([a-z]{2,3}\.)(?= ?[a-z(]|$)/gm)) found.add(m[1]!);
   for (const tok of frame.match(/[A-Za-zηθ/·₁]+/g) ?? []) {
     const t = tok.replace(/^\/+|\/+$/g, '');
     if (t.length < 2 && !/[ηθ]/.test(t)) continue;
@@ -102,5 +111,30 @@ describe('each abbreviation any view shows at 80×24 has a glossary entry', () =
     expect(missing, `abbreviations without a glossary entry: ${missing.join(', ')}`).toEqual([]);
     expect(seen.size).toBeGreaterThan(8);
     expect(GLOSSARY.length).toBeGreaterThan(20);
+  });
+});
+
+describe('the abbreviations of the bundled cases\' screens (exhaust pipe, airbox, resonators) have glossary entries', () => {
+  it.each(['cases/enduro-single.yaml', 'cases/airbox-single.yaml', 'cases/resonator-single.yaml'])('%s at 80×24, both unit systems', async (file) => {
+    const { model } = await loadCase(file, { set: ['numerics.meshSize=20mm'] });
+    const { result } = simulatePoint(model);
+    const pulse = pulseTiming(result, model);
+    const point = { result, label: 'as loaded', ambient: model.ambient.pressure, upstream: model.inlet.kind };
+    const seen = new Set<string>();
+    for (const system of UNIT_SYSTEMS) {
+      const u = units(system);
+      const port = result.pipes.some((p) => p.role === 'exhaust') ? result.trace.exhaustPortPressure : undefined;
+      for (const crank of [0, 240, 500]) {
+        const v = valveScreen({ width: 80, rows: 20, crank, from: 0, span: 720, now: result.trace, reference: model.ambient.pressure, exhaustPort: port, events: result.events, verdict: pulse.verdict, openingNote: pulse.openingNote, units: u });
+        abbreviations(v.join('\n')).forEach((a) => seen.add(a));
+        for (let k = 0; k < result.pipes.length; k++) {
+          const m = result.pipes[k]!;
+          const r = runnerScreen({ width: 80, rows: 20, crank, from: 0, span: 720, map: { x: m.x, pressure: m.pressure, ambient: model.ambient.pressure }, events: result.events, runnerLength: result.runnerLength, upstream: model.inlet.kind, rpm: result.rpm, pipe: shownPipe(point, k), valvePressure: result.trace.valvePressure, units: u });
+          abbreviations(r.join('\n')).forEach((a) => seen.add(a));
+        }
+      }
+    }
+    const missing = [...seen].filter((a) => !glossaryEntry(a));
+    expect(missing, `abbreviations without a glossary entry: ${missing.join(', ')}`).toEqual([]);
   });
 });
