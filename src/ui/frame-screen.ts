@@ -67,9 +67,9 @@ export function headerLine(o: {
 export function keyHints(view: ViewName, width: number, playing: boolean): string {
   const common = ['←→ 1°', '[ ] 10°', 'n event', `space ${playing ? 'pause' : 'play'}`, 'tab view', '+/- rpm'];
   const byView: Record<ViewName, string[]> = {
-    valve: ['z zoom', 'p pin'],
-    runner: ['z zoom'],
-    sweep: ['s sweep', 'x stop', 'p pin'],
+    valve: ['z zoom', 'p pin', 'u units'],
+    runner: ['z zoom', 'u units'],
+    sweep: ['s sweep', 'x stop', 'p pin', 'u units'],
     case: ['↑↓ choose', 'enter type', ', . step', 'w save', 'r report'],
   };
   const parts = view === 'case' ? [...byView.case, 'tab view', '+/- rpm'] : [...common, ...byView[view]];
