@@ -87,7 +87,7 @@ describe('sweep', () => {
     const text = readFileSync(join(dir, 'out.csv'), 'utf8');
     const lines = text.trim().split('\n');
     expect(lines).toHaveLength(4);
-    expect(lines[0]).toMatch(/^speed_rpm,volumetric_efficiency,torque_estimate_N_m,power_estimate_W,mass_imbalance,converged,cycles,trapped_mass_kg,residual_fraction,ivc_cylinder_pressure_Pa,valve_pressure_at_ivc_vs_reference_Pa,/);
+    expect(lines[0]).toMatch(/^speed_rpm,volumetric_efficiency,torque_estimate_N_m,power_estimate_W,mass_imbalance,converged,cycles,trapped_mass_kg,residual_fraction,ivc_cylinder_pressure_Pa,valve_pressure_at_ivc_Pa,valve_pressure_at_ivc_vs_ambient_Pa,/);
     const cells = lines[1]!.split(',');
     expect(cells[0]).toBe('6000');
     // SI: ηv a fraction near 1, the trapped mass in kg (a 450 cc single: under a gram), the IVC pressure in Pa
@@ -95,6 +95,8 @@ describe('sweep', () => {
     expect(Number(cells[1])).toBeLessThan(2);
     expect(Number(cells[7])).toBeLessThan(1e-3);
     expect(Number(cells[9])).toBeGreaterThan(5e4);
+    // against the ambient (101325 Pa in the demo): the absolute value less the ambient
+    expect(Number(cells[11])).toBeCloseTo(Number(cells[10]) - 101325, 6);
     writeFileSync(join(dir, 'out.csv'), 'mine\n');
     const again = await cli(argv, dir);
     expect(again.code).toBe(2);

@@ -393,8 +393,8 @@ export function signed(v: number, d: number): string {
 /**
  * CSV of a sweep: one convention with the run CSV (run-output.ts TRACE_COLUMNS):
  * SI values, a header row of snake_case names that end in the unit, one row
- * per speed. Pressures against the runner's reference (ambient, or the plenum
- * mean) say so: `_vs_reference_Pa`.
+ * per speed. The valve pressure at IVC absolute and against the ambient (the
+ * "vs ambient" of the screens).
  */
 export const SWEEP_CSV_COLUMNS = [
   'speed_rpm',
@@ -407,13 +407,14 @@ export const SWEEP_CSV_COLUMNS = [
   'trapped_mass_kg',
   'residual_fraction',
   'ivc_cylinder_pressure_Pa',
-  'valve_pressure_at_ivc_vs_reference_Pa',
+  'valve_pressure_at_ivc_Pa',
+  'valve_pressure_at_ivc_vs_ambient_Pa',
   'peak_offset_from_ivc_deg',
   'wave_order',
   'wave_at_ivc',
 ] as const;
 
-export function sweepCsv(points: readonly SweepPoint[]): string {
+export function sweepCsv(points: readonly SweepPoint[], ambientPressure: number): string {
   const head = SWEEP_CSV_COLUMNS;
   const num = (v: number): string => (Number.isFinite(v) ? String(v) : '');
   const rows = points.map((p) =>
@@ -428,7 +429,8 @@ export function sweepCsv(points: readonly SweepPoint[]): string {
       num(p.trappedMass),
       num(p.residualFraction),
       num(p.ivcPressure),
-      num(p.pulse.atIvc.pressureAboveReference),
+      num(p.pulse.atIvc.pressure),
+      num(p.pulse.atIvc.pressure - ambientPressure),
       p.pulse.peakOffsetFromIvc === null ? '' : num(p.pulse.peakOffsetFromIvc),
       num(p.pulse.waveOrder),
       p.pulse.effect,
@@ -517,9 +519,9 @@ compression peak came (− before closing, + after). 'wave order' is f₁·120/N
 masses in kg, pressures in Pa) under a header whose names end in the unit:
 speed_rpm, volumetric_efficiency, torque_estimate_N_m, power_estimate_W,
 mass_imbalance, converged, cycles, trapped_mass_kg, residual_fraction,
-ivc_cylinder_pressure_Pa, valve_pressure_at_ivc_vs_reference_Pa,
-peak_offset_from_ivc_deg, wave_order, wave_at_ivc. --units changes the text
-only.
+ivc_cylinder_pressure_Pa, valve_pressure_at_ivc_Pa,
+valve_pressure_at_ivc_vs_ambient_Pa, peak_offset_from_ivc_deg, wave_order,
+wave_at_ivc. --units changes the text only.
 
 Default range: the case key 'sweep {from, to, step}', else ${DEFAULT_SWEEP.from}:${DEFAULT_SWEEP.to}:${DEFAULT_SWEEP.step};
 default band: the case key 'band {from, to}', else the whole range.
@@ -597,7 +599,7 @@ examples
       io.stdout.write(`${JSON.stringify(json)}\n`);
       return 0;
     }
-    if (csv !== undefined) await writeFileAtomic(csv, sweepCsv(points), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+    if (csv !== undefined) await writeFileAtomic(csv, sweepCsv(points, loaded.model.ambient.pressure), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
 
     const out: string[] = [];
     out.push(
