@@ -56,11 +56,7 @@ function showValue(name: FitName, v: number): string {
   return name === 'friction' ? fix(v, 5) : fix(v, 4);
 }
 
-/** the display units of the present calibrate run (set once per run from --units) */
-let shownUnits: Units = METRIC;
-
-function showQuantity(kind: DynoKind, v: number): string {
-  const u = shownUnits;
+function showQuantity(kind: DynoKind, v: number, u: Units = METRIC): string {
   return kind === 'torque' ? u.text('torque', v, 2) : kind === 'power' ? u.text('power', v, 2) : `${fix(v * 100, 1)} %`;
 }
 
@@ -137,7 +133,6 @@ examples
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
     const u = displayUnits(args);
-    shownUnits = u;
     const [file] = expectPositionals(args, ['CASE'], 'calibrate');
     const fit = parseFit(args.string('fit'));
     const out = args.string('out');
@@ -211,12 +206,12 @@ examples
       rows.push(`  ${FIT_PARAMETERS[k].caseKey.padEnd(25)}${showValue(k, v).padStart(8)}  ${span}`);
       rows.push(`  ${''.padEnd(25)}was ${showValue(k, r.start[k]!)}: ${FIT_PARAMETERS[k].words}`.slice(0, 80));
     }
-    const after = ['', `residual: RMS ${fix(r.residual.rmsRelative * 100, 2)} % (${showQuantity(r.quantity, r.residual.rms)}), was ${fix(r.residual.startRmsRelative * 100, 2)} % before the fit`];
+    const after = ['', `residual: RMS ${fix(r.residual.rmsRelative * 100, 2)} % (${showQuantity(r.quantity, r.residual.rms, u)}), was ${fix(r.residual.startRmsRelative * 100, 2)} % before the fit`];
     io.stdout.write([...lines.map((l) => wrapLine(l)), ...rows, ...after.map((l) => wrapLine(l))].join('\n') + '\n');
     io.stdout.write(
       table(
         ['rpm', 'measured', 'model', 'model − meas.', '%'],
-        r.points.map((p) => [fix(p.rpm, 0), showQuantity(r.quantity, p.measured), showQuantity(r.quantity, p.model), showQuantity(r.quantity, p.residual), signed(p.relative * 100, 2)]),
+        r.points.map((p) => [fix(p.rpm, 0), showQuantity(r.quantity, p.measured, u), showQuantity(r.quantity, p.model, u), showQuantity(r.quantity, p.residual, u), signed(p.relative * 100, 2)]),
       ),
     );
     const tail = [
