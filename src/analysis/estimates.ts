@@ -57,6 +57,33 @@ export function waveOrder(frequency: number, rpm: number): number {
   return (frequency * 120) / rpm;
 }
 
+/** The quarter-wave hand figure of a runner: the one source for run, check, sweep and the view. */
+export interface HandQuarterWave {
+  /** the sound speed used, √(γRT) at the ambient temperature [m/s] */
+  soundSpeed: number;
+  /** the temperature it is taken at: the ambient air's [K] */
+  temperature: number;
+  /** total runner length [m] */
+  length: number;
+  /** open-end correction δ [m] */
+  endCorrection: number;
+  /** f₁ = a/(4(L+δ)) [Hz] */
+  frequency: number;
+}
+
+/**
+ * The quarter-wave figure of the model's runner, with a at the ambient
+ * temperature (the air the runner draws; the simulated runner gas is warmer
+ * or cooler over the cycle, which is one of the things the simulation adds).
+ */
+export function handQuarterWave(model: Pick<EngineModel, 'ambient' | 'runner'>, openEnd: OpenEndKind = 'unflanged'): HandQuarterWave {
+  const a = soundSpeed(model.ambient.temperature);
+  const sections = model.runner.sections;
+  const length = sections.reduce((s, x) => s + x.length, 0);
+  const delta = endCorrection((sections[0]?.diameterStart ?? 0) / 2, openEnd);
+  return { soundSpeed: a, temperature: model.ambient.temperature, length, endCorrection: delta, frequency: quarterWaveFrequency(a, length, delta) };
+}
+
 export interface TunedSpeed {
   /** wave order k: quarter-wave periods per 720° cycle */
   order: number;
@@ -92,7 +119,11 @@ export interface HelmholtzIntake {
   effectiveVolume: number;
 }
 
-/** Engelman's Helmholtz estimate of the intake (form and constants from memory) */
+/**
+ * The intake as a Helmholtz resonator: the runner is the neck (area A,
+ * length L), the cylinder volume at mid-stroke V_eff the volume (Engelman's
+ * form, recalled from memory; the resonator formula itself is Kinsler et al.'s)
+ */
 export function helmholtzIntake(
   soundSpeed: number,
   runnerArea: number,
@@ -200,11 +231,12 @@ export function caseEstimates(
   hi: number,
   openEnd: OpenEndKind = 'unflanged',
 ): CaseEstimates {
-  const a = soundSpeed(model.ambient.temperature);
+  const hand = handQuarterWave(model, openEnd);
+  const a = hand.soundSpeed;
   const sections = model.runner.sections;
-  const length = sections.reduce((s, x) => s + x.length, 0);
-  const delta = endCorrection((sections[0]?.diameterStart ?? 0) / 2, openEnd);
-  const f1 = quarterWaveFrequency(a, length, delta);
+  const length = hand.length;
+  const delta = hand.endCorrection;
+  const f1 = hand.frequency;
   const swept = (Math.PI / 4) * model.engine.bore * model.engine.bore * model.engine.stroke;
   const lOverA = runnerLengthOverArea(sections);
   const helmholtz = helmholtzIntake(a, 1 / lOverA, 1, swept, model.engine.compressionRatio);

@@ -41,7 +41,7 @@
  *                   follows from these numbers only.
  */
 import type { EngineModel, PointResult } from '../core/model.js';
-import { quarterWaveFrequency, endCorrection } from './estimates.js';
+import { quarterWaveFrequency, endCorrection, handQuarterWave } from './estimates.js';
 
 /** half-width of the neighbourhood a peak must dominate [deg] */
 export const PEAK_HALF_WINDOW = 3;
@@ -84,8 +84,10 @@ export interface PulseTiming {
   roundTripSeconds: number;
   /** 12·N·L/a [deg] */
   roundTripDegrees: number;
-  /** a/(4(L+δ)) [Hz] */
+  /** a/(4(L+δ)) [Hz], with a at the ambient temperature when the model is given (analysis/estimates.ts handQuarterWave, the figure check prints), else the runner mean */
   quarterWaveFrequency: number;
+  /** the sound speed of the quarter-wave figure [m/s] */
+  quarterWaveSoundSpeed: number;
   /** f₁·120/N [-] */
   waveOrder: number;
   /** ringing frequency used for the phase [Hz] */
@@ -297,9 +299,10 @@ export function pulseTiming(result: PointResult, model?: EngineModel, options: P
   }
 
   // hand figures
-  const radius = model ? (model.runner.sections[0]?.diameterStart ?? 0) / 2 : 0;
-  const delta = endCorrection(radius, options.flanged ? 'flanged' : 'unflanged');
-  const f1 = quarterWaveFrequency(a, L, delta);
+  const openEnd = options.flanged ? 'flanged' : 'unflanged';
+  const hand = model ? handQuarterWave(model, openEnd) : undefined;
+  const f1 = hand ? hand.frequency : quarterWaveFrequency(a, L, endCorrection(0, openEnd));
+  const quarterWaveSoundSpeed = hand ? hand.soundSpeed : a;
   const roundTripSeconds = (2 * L) / a;
   const roundTripDegrees = (12 * N * L) / a;
   const waveOrder = (f1 * 120) / N;
@@ -401,6 +404,7 @@ export function pulseTiming(result: PointResult, model?: EngineModel, options: P
     roundTripSeconds,
     roundTripDegrees,
     quarterWaveFrequency: f1,
+    quarterWaveSoundSpeed,
     waveOrder,
     ringingFrequency,
     ringingPeriodDegrees,

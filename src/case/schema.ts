@@ -450,6 +450,10 @@ const measuredTraceSchema = z.strictObject({
 const speedRange = z.strictObject({ from: q('speed', { positive: true }), to: q('speed', { positive: true }), step: q('speed', { positive: true }) });
 const speedBand = z.strictObject({ from: q('speed', { positive: true }), to: q('speed', { positive: true }) });
 
+/** display keys: units of the text and the view only (JSON and CSV stay SI) */
+export const DISPLAY_UNITS = ['metric', 'imperial'] as const;
+const displaySchema = z.strictObject({ units: oneOf(DISPLAY_UNITS).default('metric') });
+
 export const caseSchema = z
   .strictObject({
     name: z.string().optional(),
@@ -485,6 +489,8 @@ export const caseSchema = z
     measured: fileName().optional(),
     /** a runner pressure trace: the Valve view's overlay, the default of run --measured-trace */
     measuredTrace: measuredTraceSchema.optional(),
+    /** how results are shown (text commands, the view, the report); loading stays SI */
+    display: displaySchema.optional(),
   })
   .superRefine((c, ctx) => {
     const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
@@ -614,6 +620,7 @@ export const pipeCaseSchema = z
       right: sideState,
     }),
     times: z.array(q('time', { nonNegative: true })).min(1),
+    display: displaySchema.optional(),
     numerics: z
       .strictObject({
         courant: q('dimensionless').default(0.9),

@@ -15,6 +15,7 @@ import { parseQuantity } from '../case/units.js';
 import { speedProblem } from '../case/schema.js';
 import { costCulprit, costProblem, type CostEstimate } from '../analysis/cost.js';
 import type { EngineModel } from '../core/model.js';
+import { units, unitSystemOf, UNIT_SYSTEMS, type Units } from '../present/units.js';
 
 export interface Command {
   name: string;
@@ -38,6 +39,27 @@ export const RPM_OPTION: OptionSpec = {
   value: 'N',
   description: 'engine speed [rpm], overrides the case',
 };
+
+export const UNITS_OPTION: OptionSpec = {
+  name: 'units',
+  type: 'string',
+  value: 'metric|imperial',
+  description: "units of the text output (default: the case's display.units, else metric); JSON and CSV stay SI",
+};
+
+/**
+ * The display units of a text command: --units, else the case's
+ * display.units, else metric. A bad --units value is exit 2.
+ */
+export function displayUnits(args: ParsedArgs, loaded?: { case: { display?: { units: 'metric' | 'imperial' } | undefined } }): Units {
+  const text = args.string('units');
+  if (text !== undefined) {
+    const system = unitSystemOf(text);
+    if (!system) throw new CaseError('--units', `expected one of ${UNIT_SYSTEMS.join(', ')}, got '${text}'`, 'option');
+    return units(system);
+  }
+  return units(loaded?.case.display?.units ?? 'metric');
+}
 
 export const ALLOW_EXTREME_OPTION: OptionSpec = {
   name: 'allow-extreme',

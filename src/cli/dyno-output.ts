@@ -7,6 +7,7 @@ import { compareDyno, type DynoComparison, type DynoKind, type DynoPoint } from 
 import type { SweepPoint } from '../analysis/sweep.js';
 import type { MeasuredSheet } from '../case/measured.js';
 import { fix, table } from './format.js';
+import { METRIC, type Units } from '../present/units.js';
 import { curveChart, MEASURED_GLYPH, signed, wrapLine, type ChartMarks } from './commands/sweep.js';
 
 /** the measured values of a point, as in the sheet (SI) */
@@ -35,11 +36,16 @@ export function dynoJsonTwo(a: readonly SweepPoint[], b: readonly SweepPoint[], 
   }));
 }
 
-const SHOW: Record<DynoKind, { head: string; cell: (v: number) => string; chart: string; scale: number }> = {
-  torque: { head: 'N·m', cell: (v) => fix(v, 1), chart: 'estimated brake torque [N·m] against speed', scale: 1 },
-  power: { head: 'kW', cell: (v) => fix(v / 1000, 2), chart: 'estimated brake power [kW] against speed', scale: 1e-3 },
-  volumetricEfficiency: { head: 'ηv %', cell: (v) => fix(v * 100, 1), chart: 'volumetric efficiency ηv [%] against speed', scale: 100 },
-};
+type Shown = Record<DynoKind, { head: string; cell: (v: number) => string; chart: string; scale: number }>;
+
+/** how each measured kind is shown in a unit system */
+function showOf(u: Units): Shown {
+  return {
+    torque: { head: u.label('torque'), cell: (v) => u.value('torque', v, 1), chart: `estimated brake torque ${u.bracket('torque')} against speed`, scale: u.num('torque', 1) },
+    power: { head: u.label('power'), cell: (v) => u.value('power', v, 2), chart: `estimated brake power ${u.bracket('power')} against speed`, scale: u.num('power', 1) },
+    volumetricEfficiency: { head: 'ηv %', cell: (v) => fix(v * 100, 1), chart: 'volumetric efficiency ηv [%] against speed', scale: 100 },
+  };
+}
 
 /** the measured kinds of a sheet, in the order torque, power, ηv */
 export function sheetKinds(sheet: MeasuredSheet): DynoKind[] {
@@ -47,7 +53,8 @@ export function sheetKinds(sheet: MeasuredSheet): DynoKind[] {
 }
 
 /** the measured points of one kind in a chart's unit */
-export function chartPoints(sheet: MeasuredSheet, kind: DynoKind): { rpm: number; value: number }[] {
+export function chartPoints(sheet: MeasuredSheet, kind: DynoKind, u: Units = METRIC): { rpm: number; value: number }[] {
+  const SHOW = showOf(u);
   return sheet.points.filter((p) => p[kind] !== undefined).map((p) => ({ rpm: p.rpm, value: p[kind]! * SHOW[kind].scale }));
 }
 
@@ -55,7 +62,8 @@ export function chartPoints(sheet: MeasuredSheet, kind: DynoKind): { rpm: number
  * The chart of torque (or else power) with the measured points, when the
  * sheet has them: the series are the curves' estimates (A line, B dots).
  */
-export function outputChart(rpms: readonly number[], curves: readonly (readonly SweepPoint[])[], sheet: MeasuredSheet, marks: ChartMarks): string[] {
+export function outputChart(rpms: readonly number[], curves: readonly (readonly SweepPoint[])[], sheet: MeasuredSheet, marks: ChartMarks, u: Units = METRIC): string[] {
+  const SHOW = showOf(u);
   const kind = sheetKinds(sheet).find((k) => k !== 'volumetricEfficiency');
   if (!kind) return [];
   const f = SHOW[kind].scale;
@@ -65,13 +73,14 @@ export function outputChart(rpms: readonly number[], curves: readonly (readonly 
     ...curveChart(
       rpms,
       curves.map((c) => ({ values: c.map((p) => p[kind] * f) })),
-      { ...marks, points: chartPoints(sheet, kind) },
+      { ...marks, points: chartPoints(sheet, kind, u) },
     ),
   ];
 }
 
 /** Rows: each measured speed, each measured kind: measured, model, difference (%). */
-export function dynoTable(rows: readonly DynoComparison[], kinds: readonly DynoKind[]): string {
+export function dynoTable(rows: readonly DynoComparison[], kinds: readonly DynoKind[], u: Units = METRIC): string {
+  const SHOW = showOf(u);
   const head = ['rpm', ...kinds.flatMap((k) => [`meas. ${SHOW[k].head}`, `model ${SHOW[k].head}`, 'Δ %'])];
   const body = rows.map((r) => [
     fix(r.rpm, 0),
@@ -86,11 +95,11 @@ export function dynoTable(rows: readonly DynoComparison[], kinds: readonly DynoK
 }
 
 /** The text block of a sweep with a dyno sheet: the table and a line on how to read it. */
-export function dynoBlock(points: readonly SweepPoint[], sheet: MeasuredSheet): string {
+export function dynoBlock(points: readonly SweepPoint[], sheet: MeasuredSheet, u: Units = METRIC): string {
   const rows = compareDyno(points, sheet.points);
   const kinds = sheetKinds(sheet);
   let s = `\nmeasured (${sheet.file}) against the model at the measured speeds\n`;
-  s += dynoTable(rows, kinds);
+  s += dynoTable(rows, kinds, u);
   const rel = rows.flatMap((r) => kinds.map((k) => r.relative[k])).filter((v): v is number => v !== undefined && Number.isFinite(v));
   if (rel.length > 0) {
     const rms = Math.sqrt(rel.reduce((t, v) => t + v * v, 0) / rel.length);
@@ -102,7 +111,8 @@ export function dynoBlock(points: readonly SweepPoint[], sheet: MeasuredSheet): 
 }
 
 /** The text block of compare with a dyno sheet: measured against A and B. */
-export function dynoBlockTwo(a: readonly SweepPoint[], b: readonly SweepPoint[], sheet: MeasuredSheet): string {
+export function dynoBlockTwo(a: readonly SweepPoint[], b: readonly SweepPoint[], sheet: MeasuredSheet, u: Units = METRIC): string {
+  const SHOW = showOf(u);
   const ra = compareDyno(a, sheet.points);
   const rb = compareDyno(b, sheet.points);
   const kinds = sheetKinds(sheet);

@@ -21,6 +21,7 @@ import type { CliIo } from './io.js';
 import { defaultCasePath, packageVersion } from './package-root.js';
 import { SAFETY_CAUTION } from './safety.js';
 import { wrap } from './format.js';
+import { glossaryLines } from '../present/glossary.js';
 import { errnoWords, OutputError } from './write-file.js';
 import { printable } from '../case/printable.js';
 
@@ -40,6 +41,7 @@ usage
 ${commands.map((c) => `  ${c.name.padEnd(w)}${wrap(c.summary, 76 - w, '').trimEnd().split('\n').join(`\n${' '.repeat(w + 2)}`)}`).join('\n')}
 
   tractwave <command> --help     the options of one command
+  tractwave help words           the words and abbreviations on the screens
   tractwave --version
 
 case files are YAML (or JSON). A value is a number in SI units (m, m³, Pa, K;
@@ -52,6 +54,11 @@ exit codes: 0 ok (also a run that did not converge, with a warning),
 
 ${SAFETY_CAUTION}
 `;
+}
+
+/** `tractwave help words`: the glossary of the screens' words, at 80 columns. */
+export function wordsHelp(): string {
+  return `Words and abbreviations on tractwave's screens, in plain words\n\n${glossaryLines(78).join('\n')}\n\n${SAFETY_CAUTION}\n`;
 }
 
 /** Print an error as one line and give its exit code. */
@@ -122,6 +129,10 @@ async function interactive(argv: readonly string[], io: CliIo): Promise<number> 
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
   try {
     const first = argv[0];
+    if (first === 'help' && (argv[1] === 'words' || argv[1] === 'glossary')) {
+      io.stdout.write(wordsHelp());
+      return 0;
+    }
     if (first === '-h' || first === '--help' || first === 'help') {
       const sub = first === 'help' && argv[1] !== undefined ? findCommand(argv[1]) : undefined;
       if (first === 'help' && argv[1] !== undefined && !sub) throw new CaseError(argv[1], `unknown command${hint(argv[1])}`, 'option');

@@ -13,7 +13,10 @@ import { overlapPressures, plenumRinging } from '../analysis/parts.js';
 import type { PulseTiming } from '../analysis/pulse.js';
 import type { LoadedCase } from '../case/load.js';
 import { thetaToCard } from '../case/to-model.js';
-import { card, deg, fix, gps, hz, kPa, mg, mm, pct, row, wrap } from './format.js';
+import { card, deg, fix, hz, pct, row, wrap } from './format.js';
+import { METRIC, type Units } from '../present/units.js';
+import { restateGauge } from '../present/words.js';
+import { assemblyLine } from '../present/network-line.js';
 
 /** mass imbalance above which a warning is printed [-] */
 /** the warning threshold of the mass balance (analysis/mass-balance.ts) */
@@ -129,18 +132,18 @@ export function runWarnings(r: PointResult, maxCycles: number, model?: Pick<Engi
 }
 
 /** What the airbox and the exhaust pipe did, when the case has them. */
-export function partLines(m: EngineModel, r: PointResult): string {
+export function partLines(m: EngineModel, r: PointResult, u: Units = METRIC): string {
   let s = '';
   const box = plenumRinging(r, m);
   if (box && m.inlet.kind === 'plenum') {
     const est = (soundSpeed(m.ambient.temperature) / (2 * Math.PI)) * Math.sqrt(1 / (m.inlet.volume * feedInertance(m.inlet)));
-    s += row(m.inlet.snorkel ? 'airbox pressure' : 'plenum pressure', `${kPa(box.min)} to ${kPa(box.max)} over the cycle`);
-    s += row(m.inlet.snorkel ? 'airbox swings most at' : 'plenum swings most at', `${hz(box.frequency, 0)} = ${box.order} × N/120, ±${kPa(box.amplitude)} (Helmholtz est. ${hz(est, 0)})`);
+    s += row(m.inlet.snorkel ? 'airbox pressure' : 'plenum pressure', `${u.text('pressure', box.min)} to ${u.text('pressure', box.max)} over the cycle`);
+    s += row(m.inlet.snorkel ? 'airbox swings most at' : 'plenum swings most at', `${hz(box.frequency, 0)} = ${box.order} × N/120, ±${u.text('gauge', box.amplitude)} (Helmholtz estimate of the box on its feed ${hz(est, 0)})`);
   }
   const ov = overlapPressures(r, m);
   if (ov) {
     const words = ov.difference < 0 ? 'below the intake side: it pulls gas through' : 'above the intake side: it pushes burned gas back';
-    s += row('exhaust port at overlap', `${kPa(ov.port)}, ${kPa(Math.abs(ov.difference))} ${words}`);
+    s += row('exhaust port at overlap', `${u.text('pressure', ov.port)}, ${u.text('gauge', Math.abs(ov.difference))} ${words}`);
   }
   return s;
 }
@@ -155,40 +158,41 @@ export function eventLines(events: PointResult['events']): string {
   );
 }
 
-export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTiming, wallSeconds: number): string {
+export function runSummary(loaded: LoadedCase, r: PointResult, pulse: PulseTiming, wallSeconds: number, u: Units = METRIC): string {
   const m = loaded.model;
   let s = '';
   s += `${m.name} at ${fix(r.rpm, 0)} rpm${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
-  s += `  ${wrap(networkLine(m), 76, '    ')}`;
+  s += `  ${wrap(assemblyLine(m, u), 76, '    ')}`;
   s += r.converged
     ? `  periodic after ${r.cycles} cycles (tolerance ${m.numerics.tolerance})\n\n`
     : `  NOT converged after ${r.cycles} cycles: figures are from the last cycle run\n\n`;
   const implausible = resultProblems({ volumetricEfficiency: r.volumetricEfficiency, residualFraction: r.residualFraction }, maxVolumetricEfficiency(m)).length > 0;
   s += row('volumetric efficiency', `${pct(r.volumetricEfficiency)}${implausible ? '  (NOT a breathing figure: see the warning)' : ''}`);
-  s += row('delivered mass', `${mg(r.deliveredMass)} per cycle (through the intake valve)`);
-  s += row('trapped mass at IVC', mg(r.trappedMass));
+  s += row('delivered mass', `${u.text('mass', r.deliveredMass)} per cycle (through the intake valve)`);
+  s += row('trapped mass at IVC', u.text('mass', r.trappedMass));
   s += row('residual gas', pct(r.residualFraction));
-  s += row('cylinder pressure at IVC', kPa(r.ivcPressure));
-  s += row('valve pressure at IVO', kPa(r.valvePressureAtIvo));
-  s += row('valve pressure at IVC', kPa(r.valvePressureAtIvc));
-  s += row('peak reverse flow', gps(r.peakReverseFlow));
+  s += row('cylinder pressure at IVC', u.text('pressure', r.ivcPressure));
+  s += row('valve pressure at IVO', u.text('pressure', r.valvePressureAtIvo));
+  s += row('valve pressure at IVC', u.text('pressure', r.valvePressureAtIvc));
+  s += row('peak reverse flow', u.text('massFlow', r.peakReverseFlow));
   const warn = !massBalanceOk(r.massImbalance) ? '  (above 0.5 %: see warning)' : '';
-  s += row('mass balance', `inlet ${mg(r.inletMass)} vs valve ${mg(r.deliveredMass)}: ${pct(r.massImbalance, 2)}${warn}`);
-  s += partLines(m, r);
+  s += row('mass balance', `inlet ${u.text('mass', r.inletMass)} vs valve ${u.text('mass', r.deliveredMass)}: ${pct(r.massImbalance, 2)}${warn}`);
+  s += partLines(m, r, u);
   s += '\npulse timing\n';
   // a: the simulated mean sound speed in the runner (check uses the ambient's)
-  s += row('wave round trip 2L/a', `${deg(pulse.roundTripDegrees, 1)} of crank (L ${mm(pulse.runnerLength, 0)}, a ${fix(pulse.soundSpeed, 0)} m/s in the runner)`);
+  s += row('wave round trip 2L/a', `${deg(pulse.roundTripDegrees, 1)} of crank (L ${u.text('length', pulse.runnerLength, u.system === 'metric' ? 0 : 1)}, a ${u.text('speed', pulse.soundSpeed, 0)}, the mean in the runner)`);
   s += row('quarter-wave, wave order', `${fix(pulse.quarterWaveFrequency, 1)} Hz, order ${fix(pulse.waveOrder, 2)} at this speed`);
+  s += row('', `a/(4(L+δ)) with a ${u.text('speed', pulse.quarterWaveSoundSpeed)} at the ambient ${u.text('temperature', m.ambient.temperature)}`);
   // the compression peak the verdict speaks of: still rising at IVC → the one just after
   const after = pulse.effect === 'helping' ? pulse.peakAfterIvc : null;
   const pk = after ?? pulse.lastPeakBeforeIvc;
   s += row(
     after ? 'peak just after IVC' : 'last peak before IVC',
-    pk ? `θ ${deg(pk.crank, 1)}, ${deg(Math.abs(pk.offsetFromIvc), 1)} ${pk.offsetFromIvc <= 0 ? 'before' : 'after'} IVC, +${kPa(pk.pressureAboveReference)}` : 'none in the open period',
+    pk ? `θ ${deg(pk.crank, 1)}, ${deg(Math.abs(pk.offsetFromIvc), 1)} ${pk.offsetFromIvc <= 0 ? 'before' : 'after'} IVC, ${u.signed('gauge', pk.pressureAboveReference)} ${u.label('gauge')}` : 'none in the open period',
   );
-  s += row('at IVC', `${kPa(pulse.atIvc.pressureAboveReference)} vs ${pulse.referenceKind} (ringing phase ${fix(pulse.atIvc.ringingPhase, 0)}°)`);
-  s += wrap(`  verdict: ${pulse.verdict}`);
-  s += wrap(`  opening: ${pulse.openingNote}`);
+  s += row('at IVC', `${u.signed('gauge', pulse.atIvc.pressureAboveReference)} ${u.label('gauge')} vs ${pulse.referenceKind} (ringing phase ${fix(pulse.atIvc.ringingPhase, 0)}°)`);
+  s += wrap(`  verdict: ${restateGauge(pulse.verdict, u)}`);
+  s += wrap(`  opening: ${restateGauge(pulse.openingNote, u)}`);
   s += '\nevents (θ: 0 = TDC at the start of the intake stroke; card form beside)\n';
   s += eventLines(r.events);
   s += `\n  ${r.stats.nodes} ${r.pipes.length > 1 ? 'pipe' : 'runner'} points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;

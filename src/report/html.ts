@@ -217,7 +217,7 @@ function speedSection(data: ReportData, u: Units, charts: Map<string, RenderedCh
     `Quarter-wave estimate: ${fixed(e.quarterWaveFrequency, 1)} Hz (sound speed ${fixed(e.soundSpeed, 1)} m/s at the ambient temperature, runner ${esc(u.text('length', e.runnerLength))} ` +
       `+ end correction ${esc(u.text('length', e.endCorrection))}); tuned speeds N = 120·f/order: ${esc(tuned)} (marked on the chart).`,
   );
-  facts.push(`Helmholtz estimate (Engelman's form, runner and cylinder as a resonator): ${fixed(e.helmholtz.frequency, 1)} Hz, peak near ${fixed(e.helmholtz.peakRpm, 0)} rpm.`);
+  facts.push(`Helmholtz estimate (the runner as the neck, the cylinder volume at mid-stroke as the volume): ${fixed(e.helmholtz.frequency, 1)} Hz, peak near ${fixed(e.helmholtz.peakRpm, 0)} rpm.`);
   if (e.plenumFrequency !== null) facts.push(`The plenum ringing through its feed: ${fixed(e.plenumFrequency, 1)} Hz.`);
   if (data.compare) {
     const cs = data.compare.curve.summary;

@@ -9,17 +9,10 @@
  */
 import { networkLine as assemblyLine, type LineUnits } from '../analysis/network-line.js';
 import type { EngineModel } from '../core/model.js';
-import { fixed, type Units } from './units.js';
+import type { Units } from './units.js';
+import { lineUnits } from '../present/network-line.js';
 
-/** the assembly line's formatters in the report's units */
-export function lineUnits(u: Units): LineUnits {
-  const len = u.unit('length');
-  return {
-    length: (m) => fixed(len.toDisplay(m), u.system === 'metric' ? 0 : 2),
-    volume: (m3) => u.text('volume', m3),
-    pressure: (pa) => u.text('pressure', pa),
-  };
-}
+export { lineUnits };
 
 /** The network in one line, and the unit its pipe sizes are in. */
 export function networkLine(model: EngineModel, u: Units): string {

@@ -24,7 +24,9 @@ import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type Point
 import type { PipeShown } from './runner-screen.js';
 import type { ValveMeasured } from './valve-screen.js';
 import { teachingLine } from './teach.js';
-import { etaPct, etaPoints, fit, joinFit, mg, wrapWords } from './text.js';
+import { etaPct, etaPoints, fit, joinFit, wrapWords } from './text.js';
+import { units as unitsOf } from '../present/units.js';
+import { fixed } from '../present/number.js';
 import { useTerminalSize, type TerminalSize } from './use-terminal-size.js';
 import { CasePanel, HelpScreen, RunnerView, SweepView, TooSmall, ValveView, Waiting } from './views.js';
 
@@ -73,6 +75,7 @@ export function App(props: AppProps): React.JSX.Element {
         fields: session.fields,
         sweepPlan: session.sweepPlan,
         suggestedSavePath: '',
+        ...(session.units ? { units: session.units } : {}),
         ...(props.teach !== undefined ? { teach: props.teach } : {}),
       }),
   );
@@ -239,7 +242,8 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
   const from = windowStart(s.crank, span);
 
   let body: React.JSX.Element;
-  if (s.help) body = <HelpScreen width={w} rows={budget.body + budget.teach} color={color} />;
+  const u = unitsOf(s.units);
+  if (s.help) body = <HelpScreen width={w} rows={budget.body + budget.teach} color={color} page={s.helpPage} scroll={s.helpScroll} />;
   else if (s.view === 'sweep')
     body = (
       <SweepView
@@ -277,6 +281,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         baseline={s.baseline?.result}
         baselineLabel={s.baseline?.label}
         save={s.save}
+        units={u}
         color={color}
       />
     );
@@ -297,6 +302,8 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         pipe={shownPipe(point, s.pipeIndex)}
         roundTripDeg={point.pulse?.roundTripDeg}
         rpm={point.result.rpm}
+        valvePressure={point.result.trace.valvePressure}
+        units={u}
         color={color}
       />
     );
@@ -316,6 +323,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         verdict={point.pulse?.verdict}
         openingNote={point.pulse?.openingNote}
         measured={s.measured ? valveMeasured(session, point) : undefined}
+        units={u}
         color={color}
       />
     );
@@ -332,7 +340,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
               valveFlow: point.result.trace.valveFlow[s.crank] ?? 0,
               reference: point.ambient,
               events: point.result.events,
-            }),
+            }, u),
             w,
             budget.teach,
           )
@@ -399,10 +407,10 @@ export function statusLine(s: UiState, w: number): string {
     if (b) {
       parts.push(`baseline ${etaPct(b.volumetricEfficiency)} (${etaPoints(r.volumetricEfficiency, b.volumetricEfficiency)})`);
     }
-    parts.push(`trapped ${mg(r.trappedMass)} mg`);
+    parts.push(`trapped ${unitsOf(s.units).text('mass', r.trappedMass)}`);
     parts.push(r.converged ? `${r.cycles} cycles` : `NOT converged in ${r.cycles} cycles`);
     // the solver's own mass balance: above 0.5 % the figures are suspect
-    if (!massBalanceOk(r.massImbalance)) parts.push(`mass balance off ${(r.massImbalance * 100).toFixed(1)} %!`);
+    if (!massBalanceOk(r.massImbalance)) parts.push(`mass balance off ${fixed(r.massImbalance * 100, 1)} %!`);
   }
   if (s.playing) parts.push(`playing ${playRate(s)}°/s`);
   return joinFit(parts, w, ' · ');

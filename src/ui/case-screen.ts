@@ -5,7 +5,9 @@
  */
 import type { FieldDef } from './fields.js';
 import { formatField } from './fields.js';
-import { etaPct, etaPoints, firstFit, fit, joinFit, kpa, mg, wrapWords } from './text.js';
+import { etaPct, etaPoints, firstFit, fit, joinFit, wrapWords } from './text.js';
+import { METRIC, type Units } from '../present/units.js';
+import { fixed } from '../present/number.js';
 import { padLines } from './valve-screen.js';
 
 export interface CaseScreenInput {
@@ -24,6 +26,8 @@ export interface CaseScreenInput {
   baseline?: ResultNumbers | undefined;
   baselineLabel?: string | undefined;
   save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; kind?: 'case' | 'report' } | undefined;
+  /** display units of the results (the u key); the values keep the units they are typed in */
+  units?: Units | undefined;
 }
 
 export interface ResultNumbers {
@@ -69,10 +73,10 @@ export function caseScreen(i: CaseScreenInput): string[] {
     below.push(
       joinFit(
         [
-          `trapped ${mg(r.trappedMass)} mg`,
-          `cylinder at IVC ${kpa(r.ivcPressure)} kPa`,
+          `trapped ${(i.units ?? METRIC).text('mass', r.trappedMass)}`,
+          `cylinder at IVC ${(i.units ?? METRIC).text('pressure', r.ivcPressure)}`,
           `${r.cycles} cycles${r.converged ? ', converged' : ', NOT converged'}`,
-          `mass balance ${(r.massImbalance * 100).toFixed(2)} %`,
+          `mass balance ${fixed(r.massImbalance * 100, 2)} %`,
         ],
         w,
         ' · ',

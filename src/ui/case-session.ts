@@ -45,6 +45,8 @@ export interface CaseSession {
   report: (edits: readonly Edit[], path: string, overwrite: boolean) => Promise<string>;
   /** the measured data the case names (its measuredTrace, intake.liftFile and measured keys) */
   measured?: SessionMeasured | undefined;
+  /** the case's display.units: the units the view starts in (the u key switches) */
+  units?: 'metric' | 'imperial' | undefined;
 }
 
 export interface SessionMeasured {
@@ -226,6 +228,7 @@ export async function openCase(file: string, opts: OpenOptions = {}): Promise<Ca
     exists: fileExists,
     save: (edits, path, overwrite) => saveEditedCase(file, edits, path, { overwrite }),
     measured: measuredOf(loaded),
+    units: loaded.case.display?.units ?? 'metric',
     suggestReportPath: async () => suggestReportPath(file, fileExists, await saveDirFor(file)),
     report: async (edits, path, overwrite) => {
       const edited = buildCase(structuredClone(raw), file, { set: setsOf(edits) });

@@ -4,6 +4,7 @@
  * the same form as `--set` on the command line, so the case loader does every
  * unit conversion; the panel only shows and types numbers.
  */
+import { fixed } from '../present/number.js';
 
 export interface FieldDef {
   /** case-file path, as for `--set` */
@@ -231,7 +232,7 @@ export function overrideText(field: FieldDef, value: number): string {
 }
 
 export function formatField(field: FieldDef, value: number): string {
-  return value.toFixed(field.decimals);
+  return fixed(value, field.decimals);
 }
 
 export function roundTo(v: number, decimals: number): number {
@@ -241,7 +242,8 @@ export function roundTo(v: number, decimals: number): number {
 
 /** Parse a typed number ("320", "320.5", "-4"); undefined when it is not one. */
 export function parseTyped(text: string): number | undefined {
-  const t = text.trim();
+  // the minus sign the screens show (−) is read as a minus too
+  const t = text.trim().replace(/^−/, '-');
   if (!/^[-+]?(\d+(\.\d*)?|\.\d+)$/.test(t)) return undefined;
   const v = Number(t);
   return Number.isFinite(v) ? v : undefined;

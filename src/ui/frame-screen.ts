@@ -6,6 +6,7 @@
 import { HELP, HELP_LEAVE, SAFETY, type HelpGroup } from './keys.js';
 import { VIEWS, VIEW_TITLES, type ViewName } from './state.js';
 import { fit, firstFit, wrapWords } from './text.js';
+import { glossaryLines } from '../present/glossary.js';
 import { padLines } from './valve-screen.js';
 
 /** The smallest terminal the views are laid out for. */
@@ -66,9 +67,9 @@ export function headerLine(o: {
 export function keyHints(view: ViewName, width: number, playing: boolean): string {
   const common = ['←→ 1°', '[ ] 10°', 'n event', `space ${playing ? 'pause' : 'play'}`, 'tab view', '+/- rpm'];
   const byView: Record<ViewName, string[]> = {
-    valve: ['z zoom', 'p pin'],
-    runner: ['z zoom'],
-    sweep: ['s sweep', 'x stop', 'p pin'],
+    valve: ['z zoom', 'p pin', 'u units'],
+    runner: ['z zoom', 'u units'],
+    sweep: ['s sweep', 'x stop', 'p pin', 'u units'],
     case: ['↑↓ choose', 'enter type', ', . step', 'w save', 'r report'],
   };
   const parts = view === 'case' ? [...byView.case, 'tab view', '+/- rpm'] : [...common, ...byView[view]];
@@ -79,6 +80,29 @@ export function keyHints(view: ViewName, width: number, playing: boolean): strin
     if (next.length + 2 + tail.length <= width) kept.push(p);
   }
   return fit([...kept, tail].join('  '), width);
+}
+
+/**
+ * The glossary page of the help (? then g): each word and abbreviation the
+ * screens show, in plain words. `scroll` is the first line shown; ↑ ↓ are not
+ * needed at 80×24 for the first page, and the page says how to see the rest.
+ */
+export function glossaryPage(width: number, rows: number, scroll = 0): string[] {
+  const w = width;
+  const all = glossaryLines(w);
+  const room = Math.max(1, rows - 1);
+  const first = Math.max(0, Math.min(scroll, Math.max(0, all.length - room)));
+  const shown = all.slice(first, first + room);
+  const more = first + room < all.length;
+  const title = firstFit(
+    [
+      `Words on the screens${more || first > 0 ? ` (lines ${first + 1}–${first + shown.length} of ${all.length}, ↓ ↑)` : ''} — g keys · esc close`,
+      'Words on the screens — ↓ ↑ scroll · g keys · esc close',
+      'Words',
+    ],
+    w,
+  );
+  return padLines([title, ...shown], rows, w);
 }
 
 export function helpLines(width: number, rows: number): string[] {

@@ -41,6 +41,7 @@ export interface HelpGroup {
 export const HELP_LEAVE: readonly HelpEntry[] = [
   { keys: 'q  ctrl+c', what: 'quit' },
   { keys: '?  esc', what: 'close this help' },
+  { keys: 'g  k', what: 'words / keys' },
 ];
 
 export const HELP: readonly HelpGroup[] = [
@@ -62,6 +63,7 @@ export const HELP: readonly HelpGroup[] = [
       { keys: 'p', what: 'pin as baseline' },
       { keys: 't', what: 'teaching line' },
       { keys: 'm', what: 'measured data on/off' },
+      { keys: 'u  ? g', what: 'units / glossary' },
     ],
   },
   {
@@ -121,6 +123,11 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
 
   if (s.help) {
     if (input === 'q') return { type: 'quit' };
+    if (input === 'g') return { type: 'helpPage', page: s.helpPage === 'words' ? 'keys' : 'words' };
+    if (input === 'k') return { type: 'helpPage', page: 'keys' };
+    if (input === 'u') return { type: 'toggleUnits' };
+    if (s.helpPage === 'words' && (key.downArrow || key.pageDown || input === ' ')) return { type: 'helpScroll', by: key.downArrow ? 1 : 10 };
+    if (s.helpPage === 'words' && (key.upArrow || key.pageUp)) return { type: 'helpScroll', by: key.upArrow ? -1 : -10 };
     if (input === '?' || key.escape || key.return) return { type: 'closeHelp' };
     return undefined;
   }
@@ -178,6 +185,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'toggleTeach' };
     case 'm':
       return { type: 'toggleMeasured' };
+    case 'u':
+      return { type: 'toggleUnits' };
     case 'z':
       return { type: 'zoom', dir: 1 };
     case 'Z':

@@ -10,7 +10,8 @@
  */
 import { columnOfCrank, crankAxis, cycleMarks, fitLeft } from './chart.js';
 import { mapLegend, mapLines, shadeStep, type MapInput } from './space-time.js';
-import { firstFit, fit, kpaSigned } from './text.js';
+import { firstFit, fit } from './text.js';
+import { METRIC, type Units } from '../present/units.js';
 import { padLines } from './valve-screen.js';
 
 export interface RunnerScreenInput {
@@ -30,6 +31,13 @@ export interface RunnerScreenInput {
   rpm: number;
   /** another pipe than the runner, or the runner among several pipes */
   pipe?: PipeShown | undefined;
+  /**
+   * the pressure at the valve [Pa] per crank degree (the trace the Valve view and the
+   * teaching line read): the readout's valve end, so every screen gives one figure
+   */
+  valvePressure?: ArrayLike<number> | undefined;
+  /** display units (the u key); metric when not given */
+  units?: Units | undefined;
 }
 
 /** Which pipe the view shows and how its ends are named. */
@@ -69,6 +77,8 @@ function sample(map: MapInput, crank: number, n: number): number {
 
 export function runnerScreen(i: RunnerScreenInput): string[] {
   const w = i.width;
+  const u = i.units ?? METRIC;
+  const G = u.label('gauge');
   const g = RUNNER_GUTTER;
   const cols = Math.max(1, w - g);
   const fixed = 1 /* title */ + 1 /* marker */ + 2 /* axis */ + 1 /* legend */ + 1; /* readout */
@@ -77,7 +87,8 @@ export function runnerScreen(i: RunnerScreenInput): string[] {
   const map = pipe?.startOnTop ? reversedMap(i.map) : i.map;
   const step = shadeStep(map);
   const body = mapLines(map, { from: i.from, span: i.span, cols, rows: mapRows }, step);
-  const lenMm = Math.round((pipe ? pipe.length : i.runnerLength) * 1000);
+  const lenMm = u.value('length', pipe ? pipe.length : i.runnerLength, u.system === 'metric' ? 0 : 1);
+  const lenUnit = u.label('length');
   const upstreamName = i.upstream === 'plenum' ? 'plenum' : 'open';
   const topName = pipe ? pipe.top : 'valve';
   const bottomName = pipe ? pipe.bottom : upstreamName;
@@ -87,7 +98,7 @@ export function runnerScreen(i: RunnerScreenInput): string[] {
     if (r === 1 && two) return 'end';
     if (r === mapRows - 1) return two ? 'end' : bottomName;
     if (r === mapRows - 2 && two) return bottomName;
-    if (r === Math.floor(mapRows / 2) && mapRows >= 5) return `↕${lenMm}mm`; // the length the axis spans, not a position on it
+    if (r === Math.floor(mapRows / 2) && mapRows >= 5) return `↕${lenMm}${lenUnit}`; // the length the axis spans, not a position on it
     return '';
   };
   const mapped = body.map((line, r) => fitLeft(gutterFor(r), g - 1) + (r === 0 || r === mapRows - 1 ? '┤' : '│') + line);
@@ -102,7 +113,7 @@ export function runnerScreen(i: RunnerScreenInput): string[] {
   const which = pipe && pipe.count > 1 ? ` · pipe ${pipe.index + 1}/${pipe.count} (↑↓)` : '';
   const title = firstFit(
     [
-      `Pressure along the ${name}, ${topName} end at the top, ${bottomName} end at the bottom (${lenMm} mm)${which}`,
+      `Pressure along the ${name}, ${topName} end at the top, ${bottomName} end at the bottom (${lenMm} ${lenUnit})${which}`,
       `Pressure along the ${name}: ${topName} end top, ${bottomName} end bottom${which}`,
       `Pressure along the ${name}${which}`,
       `Pressure along the ${name}`,
@@ -110,18 +121,20 @@ export function runnerScreen(i: RunnerScreenInput): string[] {
     w,
   );
   const nx = map.x.length;
-  const atTop = sample(map, i.crank, nx - 1) - map.ambient;
+  // the valve end of the runner reads the valve trace (the map's end point is the pipe's last node)
+  const valveOnTop = topName === 'valve' && (!pipe || pipe.name === 'runner') && i.valvePressure !== undefined;
+  const atTop = (valveOnTop ? (i.valvePressure![i.crank] ?? Number.NaN) : sample(map, i.crank, nx - 1)) - map.ambient;
   const atBottom = sample(map, i.crank, 0) - map.ambient;
   const trip = i.roundTripDeg !== undefined && Number.isFinite(i.roundTripDeg) ? `${Math.round(i.roundTripDeg)}°` : '—';
   const tripText = name === 'runner' ? [` · wave round trip ${trip} at ${Math.round(i.rpm)} rpm`, ` · round trip ${trip}`, `, trip ${trip}`] : ['', '', ''];
   const readout = firstFit(
     [
-      `At ${i.crank}°: ${topName} end ${kpaSigned(atTop)} kPa, ${bottomName} end ${kpaSigned(atBottom)} kPa vs ambient${tripText[0]}`,
-      `At ${i.crank}°: ${topName} end ${kpaSigned(atTop)} kPa, ${bottomName} end ${kpaSigned(atBottom)} kPa${tripText[1]}`,
-      `${i.crank}°: ${topName} ${kpaSigned(atTop)} kPa, ${bottomName} ${kpaSigned(atBottom)} kPa${tripText[2]}`,
+      `At ${i.crank}°: ${topName} end ${u.signed('gauge', atTop)} ${G}, ${bottomName} end ${u.signed('gauge', atBottom)} ${G} vs ambient${tripText[0]}`,
+      `At ${i.crank}°: ${topName} end ${u.signed('gauge', atTop)} ${G}, ${bottomName} end ${u.signed('gauge', atBottom)} ${G}${tripText[1]}`,
+      `${i.crank}°: ${topName} ${u.signed('gauge', atTop)} ${G}, ${bottomName} ${u.signed('gauge', atBottom)} ${G}${tripText[2]}`,
     ],
     w,
   );
-  const legend = fit(mapLegend(step, w), w);
+  const legend = fit(mapLegend(step, w, u), w);
   return padLines([title, markerLine, ...mapped, ...axis, legend, readout], i.rows, w);
 }

@@ -10,12 +10,15 @@
  * sample farthest from ambient is shown, so a narrow pulse is not averaged
  * away on a coarse grid.
  */
+import { fixed, MINUS } from '../present/number.js';
+import { METRIC, type Units } from '../present/units.js';
 import { crankBins } from './chart.js';
 
 /** Shades for pressure above ambient, weak → strong. */
 export const ABOVE = ['░', '▒', '▓', '█'] as const;
 /** Shades for pressure below ambient, weak → strong. */
-export const BELOW = ['·', ':', '-', '='] as const;
+export const BELOW = ['·', ':', '~', '='] as const;
+// (not '-': beside a negative value in the legend it read as a double minus, "- −6.0")
 export const NEAR = ' ';
 
 export interface MapInput {
@@ -145,22 +148,23 @@ export function mapLines(input: MapInput, grid: MapGrid, step = shadeStep(input)
 
 /**
  * A legend line for the shade scale, fitted to `width` columns. `step` is in
- * Pa; the values are shown in kPa relative to ambient.
+ * Pa; the values are shown against ambient in the gauge unit (kPa or inHg).
  */
-export function mapLegend(step: number, width: number): string {
-  const kpa = (v: number): string => {
-    const k = v / 1000;
+export function mapLegend(step: number, width: number, u: Units = METRIC): string {
+  const num = (v: number): string => {
+    const k = u.num('gauge', v);
     const digits = Math.abs(k) >= 10 ? 0 : Math.abs(k) >= 1 ? 1 : 2;
-    return k.toFixed(digits);
+    return fixed(Math.abs(k), digits);
   };
-  const below = BELOW.map((ch, i) => `${ch} −${kpa((i + 1) * step)}`).reverse().join('  ');
-  const above = ABOVE.map((ch, i) => `${ch} +${kpa((i + 1) * step)}`).join('  ');
-  const long = `below ambient: ${below}  │ blank: near │  above: ${above} kPa`;
+  const unit = u.label('gauge');
+  const below = BELOW.map((ch, i) => `${ch} ${MINUS}${num((i + 1) * step)}`).reverse().join('  ');
+  const above = ABOVE.map((ch, i) => `${ch} +${num((i + 1) * step)}`).join('  ');
+  const long = `below ambient: ${below}  │ blank: near │  above: ${above} ${unit}`;
   if (long.length <= width) return long;
-  const mid = `${below}  │ blank ±${kpa(step / 2)} │  ${above} kPa`;
+  const mid = `${below}  │ blank ±${num(step / 2)} │  ${above} ${unit}`;
   if (mid.length <= width) return mid;
-  const tight = `${below.replace(/ {2}/g, ' ')} │ ${above.replace(/ {2}/g, ' ')} kPa`;
+  const tight = `${below.replace(/ {2}/g, ' ')} │ ${above.replace(/ {2}/g, ' ')} ${unit}`;
   if (tight.length <= width) return tight;
-  const short = `${BELOW.join('')} below  ${ABOVE.join('')} above ambient, step ${kpa(step)} kPa`;
+  const short = `${BELOW.join('')} below  ${ABOVE.join('')} above ambient, step ${num(step)} ${unit}`;
   return short.length <= width ? short : short.slice(0, Math.max(0, width));
 }

@@ -8,6 +8,7 @@ import type { PointResult } from '../core/model.js';
 import { FIELDS, type FieldDef, fieldByPath, overrideText, parseTyped, roundTo } from './fields.js';
 import { mod } from './chart.js';
 import { RPM_LIMITS } from '../case/schema.js';
+import type { UnitSystem } from '../present/units.js';
 
 export type ViewName = 'valve' | 'runner' | 'sweep' | 'case';
 export const VIEWS: readonly ViewName[] = ['valve', 'runner', 'sweep', 'case'];
@@ -82,6 +83,12 @@ export interface UiState {
   /** which pipe the Runner view shows: 0 the runner, then the case's other pipes */
   pipeIndex: number;
   help: boolean;
+  /** which page of the help: the keys, or the glossary of the words on the screens (g) */
+  helpPage: 'keys' | 'words';
+  /** first line shown of the glossary page */
+  helpScroll: number;
+  /** display units of every screen (u) */
+  units: UnitSystem;
   teach: boolean;
   /** draw the case's measured data beside the model (m) */
   measured: boolean;
@@ -133,6 +140,9 @@ export type Action =
   | { type: 'showView'; view: ViewName }
   | { type: 'speed'; by: number }
   | { type: 'toggleHelp' }
+  | { type: 'helpPage'; page: 'keys' | 'words' }
+  | { type: 'toggleUnits' }
+  | { type: 'helpScroll'; by: number }
   | { type: 'closeHelp' }
   | { type: 'toggleTeach' }
   | { type: 'toggleMeasured' }
@@ -174,6 +184,8 @@ export interface InitOptions {
   suggestedSavePath: string;
   suggestedReportPath?: string;
   teach?: boolean;
+  /** display units at start (the case's display.units) */
+  units?: UnitSystem;
 }
 
 export function initialState(o: InitOptions): UiState {
@@ -187,6 +199,9 @@ export function initialState(o: InitOptions): UiState {
     zoomIndex: 0,
     pipeIndex: 0,
     help: false,
+    helpPage: 'keys',
+    helpScroll: 0,
+    units: o.units ?? 'metric',
     teach: o.teach ?? true,
     measured: true,
     quit: false,
@@ -345,9 +360,17 @@ export function reduce(s: UiState, a: Action): UiState {
       return applyValue(s, field, next);
     }
     case 'toggleHelp':
-      return { ...s, help: !s.help };
+      return { ...s, help: !s.help, helpPage: 'keys' };
     case 'closeHelp':
-      return { ...s, help: false };
+      return { ...s, help: false, helpPage: 'keys' };
+    case 'helpPage':
+      return { ...s, help: true, helpPage: a.page, helpScroll: 0 };
+    case 'helpScroll':
+      return { ...s, helpScroll: Math.max(0, s.helpScroll + a.by) };
+    case 'toggleUnits': {
+      const units: UnitSystem = s.units === 'metric' ? 'imperial' : 'metric';
+      return { ...s, units, message: { text: units === 'imperial' ? 'Imperial units: in, ci, psi, inHg vs ambient, lb/min, gr, °F (u: metric).' : 'Metric units: mm, L, kPa, g/s, mg, °C (u: imperial).', tone: 'info' } };
+    }
     case 'toggleTeach':
       return { ...s, teach: !s.teach };
     case 'toggleMeasured':

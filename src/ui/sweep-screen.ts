@@ -6,6 +6,7 @@
  */
 import { bandMean } from '../analysis/sweep.js';
 import { axisLines, GLYPH, plotBins, valueRange, type ChartSeries, type ColumnMark } from './chart.js';
+import { fixed as fixedNum } from '../present/number.js';
 import { etaPct, etaPoints, firstFit, fit, joinFit } from './text.js';
 import { padLines } from './valve-screen.js';
 
@@ -155,7 +156,7 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const chart = plotBins(
     series,
     bins,
-    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => (v * 100).toFixed(1) },
+    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => fixedNum(v * 100, 1) },
     { cursorColumn, shadeColumns: shade },
   );
   // unconverged points as ×

@@ -5,7 +5,7 @@
  * the reference pressure); it computes no physics of its own.
  */
 import { mod } from './chart.js';
-import { kpaSigned } from './text.js';
+import { METRIC, type Units } from '../present/units.js';
 
 export interface Moment {
   /** crank angle [deg, 0..719] */
@@ -46,8 +46,8 @@ function waveAtValve(m: Moment): 'compression' | 'expansion' | 'near' {
 }
 
 /** One or two sentences (about 150 characters at most) on the valve and the wave at this degree. */
-export function teachingLine(m: Moment): string {
-  const dp = `${kpaSigned(m.valvePressure - m.reference)} kPa`;
+export function teachingLine(m: Moment, u: Units = METRIC): string {
+  const dp = `${u.signed('gauge', m.valvePressure - m.reference)} ${u.label('gauge')}`;
   const wave = waveAtValve(m);
   const intakeOpen = m.lift > 0;
   const exhaustOpen = m.exhaustLift > 0;

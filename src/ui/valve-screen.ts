@@ -5,7 +5,10 @@
  * cursor in each chart's title, and the pulse verdict. Pure.
  */
 import { crankAxis, crankChart, cycleMarks, valueRange, GLYPH, type ChartSeries } from './chart.js';
-import { firstFit, fit, gps, kpa, kpaSigned, mg, mm, wrapWords } from './text.js';
+import { firstFit, fit, wrapWords } from './text.js';
+import { fixed as fixedNum } from '../present/number.js';
+import { METRIC, type Units } from '../present/units.js';
+import { restateGauge } from '../present/words.js';
 
 export interface ValveTraces {
   /** [Pa], one sample per crank degree */
@@ -37,6 +40,8 @@ export interface ValveScreenInput {
   openingNote?: string | undefined;
   /** measured data drawn beside the model (the m key turns it on and off) */
   measured?: ValveMeasured | undefined;
+  /** display units (the u key); metric when not given */
+  units?: Units | undefined;
 }
 
 export interface ValveMeasured {
@@ -63,11 +68,24 @@ function at(a: ArrayLike<number>, crank: number): number {
 }
 
 function label1(v: number): string {
-  return Math.abs(v) >= 1000 ? v.toFixed(0) : v.toFixed(1);
+  return Math.abs(v) >= 1000 ? fixedNum(v, 0) : fixedNum(v, 1);
 }
 
 export function valveScreen(i: ValveScreenInput): string[] {
   const w = i.width;
+  const u = i.units ?? METRIC;
+  const kP = u.num('pressure', 1);
+  const kF = u.num('massFlow', 1);
+  const kM = u.num('mass', 1);
+  const kL = u.num('shortLength', 1);
+  const pv = (pa: number) => u.value('pressure', pa);
+  const dp = (pa: number) => u.signed('gauge', pa);
+  const P = u.label('pressure');
+  const G = u.label('gauge');
+  const F = u.label('massFlow');
+  const Lu = u.label('shortLength');
+  // the gauge unit is said only where it differs from the absolute one (inHg beside psi)
+  const Gs = G === P ? '' : ` ${G}`;
   const noteRows = i.openingNote && i.rows >= 26 ? 1 : 0;
   const trace = i.measured?.trace;
   const liftLog = i.measured?.lift;
@@ -85,12 +103,12 @@ export function valveScreen(i: ValveScreenInput): string[] {
 
   // pressure [kPa]: at the valve, or with a measured trace at its sensor, the model's and the measured
   const atSensor = trace !== undefined && trace.sensorAt > 0;
-  const pS: ChartSeries[] = atSensor ? [{ values: scaled(trace.model, 1e-3), style: 'line' }] : series((t) => t.valvePressure, 1e-3);
-  if (i.exhaustPort) pS.push({ values: scaled(i.exhaustPort, 1e-3), style: 'second' });
-  if (trace) pS.push({ values: scaled(trace.pressure, 1e-3), style: 'measured' });
+  const pS: ChartSeries[] = atSensor ? [{ values: scaled(trace.model, kP), style: 'line' }] : series((t) => t.valvePressure, kP);
+  if (i.exhaustPort) pS.push({ values: scaled(i.exhaustPort, kP), style: 'second' });
+  if (trace) pS.push({ values: scaled(trace.pressure, kP), style: 'measured' });
   const pR = valueRange(
     pS.map((s) => s.values),
-    { include: [i.reference / 1000], minSpan: 2, pad: 0.04 },
+    { include: [i.reference * kP], minSpan: 2 * kP * 1000, pad: 0.04 },
   );
   const pLines = crankChart(pS, {
     ...common,
@@ -98,20 +116,20 @@ export function valveScreen(i: ValveScreenInput): string[] {
     yMin: pR.min,
     yMax: pR.max,
     formatY: label1,
-    reference: i.reference / 1000,
+    reference: i.reference * kP,
   });
   // flow [g/s]
-  const fS = series((t) => t.valveFlow, 1e3);
+  const fS = series((t) => t.valveFlow, kF);
   const fR = valueRange(
     fS.map((s) => s.values),
-    { include: [0], minSpan: 1, pad: 0.04 },
+    { include: [0], minSpan: kF * 1e-3, pad: 0.04 },
   );
   const fLines = crankChart(fS, { ...common, height: hf, yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
   // mass [mg], or with a lift log the valve lift [mm], the model's and the logged
-  const mS = liftLog ? [{ values: scaled(i.now.lift, 1e3), style: 'line' as const }, { values: scaled(liftLog, 1e3), style: 'measured' as const }] : series((t) => t.cylinderMass, 1e6);
+  const mS = liftLog ? [{ values: scaled(i.now.lift, kL), style: 'line' as const }, { values: scaled(liftLog, kL), style: 'measured' as const }] : series((t) => t.cylinderMass, kM);
   const mR = valueRange(
     mS.map((s) => s.values),
-    { minSpan: 1 },
+    { minSpan: liftLog ? kL * 1e-3 : kM * 1e-6 },
   );
   const mLines = crankChart(mS, { ...common, height: hm, yMin: mR.min, yMax: mR.max, formatY: label1 });
 
@@ -124,17 +142,17 @@ export function valveScreen(i: ValveScreenInput): string[] {
     (trace ? `${GLYPH.measured} measured ` : '') +
     `${GLYPH.reference} ambient`;
   const port = i.exhaustPort ? at(i.exhaustPort, c) : undefined;
-  const portText = port !== undefined ? `, exhaust port ${kpaSigned(port - i.reference)}` : '';
-  const where = atSensor ? `${Math.round(trace.sensorAt * 1000)} mm from the valve` : 'at the valve';
+  const portText = port !== undefined ? `, exhaust port ${dp(port - i.reference)}` : '';
+  const where = atSensor ? `${u.text('length', trace.sensorAt, u.system === 'metric' ? 0 : 1)} from the valve` : 'at the valve';
   const meas = trace ? at(trace.pressure, c) : undefined;
-  const measText = meas !== undefined ? `, measured ${kpa(meas)} kPa` : '';
+  const measText = meas !== undefined ? `, measured ${pv(meas)} ${P}` : '';
   const pTitle = titleWithLegend(
     [
-      `Pressure ${where}  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient${measText}${portText})`,
-      `Pressure ${where}  ${kpa(p)} kPa (${kpaSigned(p - i.reference)} vs ambient${measText})`,
-      `Pressure ${where} ${kpa(p)} kPa${measText}`,
-      `p ${kpa(p)} kPa${meas !== undefined ? ` (meas. ${kpa(meas)})` : ''}`,
-      `p ${kpa(p)} kPa`,
+      `Pressure ${where}  ${pv(p)} ${P} (${dp(p - i.reference)}${Gs} vs ambient${measText}${portText})`,
+      `Pressure ${where}  ${pv(p)} ${P} (${dp(p - i.reference)}${Gs} vs ambient${measText})`,
+      `Pressure ${where} ${pv(p)} ${P}${measText}`,
+      `Pressure ${pv(p)} ${P}${meas !== undefined ? ` (measured ${pv(meas)})` : ''}`,
+      `Pressure ${pv(p)} ${P}`,
     ],
     legend,
     w,
@@ -144,24 +162,24 @@ export function valveScreen(i: ValveScreenInput): string[] {
   const dir = flow > 0 ? 'into the cylinder' : flow < 0 ? 'back into the runner' : '';
   const fTitle = firstFit(
     [
-      `Flow through the valve  ${gps(flow)} g/s ${dir}   ·   lift ${mm(lift)} mm`,
-      `Valve flow ${gps(flow)} g/s ${dir}  lift ${mm(lift)} mm`,
-      `Flow ${gps(flow)} g/s  lift ${mm(lift)} mm`,
+      `Flow through the valve  ${u.value('massFlow', flow)} ${F} ${dir}   ·   lift ${u.value('shortLength', lift)} ${Lu}`,
+      `Valve flow ${u.value('massFlow', flow)} ${F} ${dir}  lift ${u.value('shortLength', lift)} ${Lu}`,
+      `Flow ${u.value('massFlow', flow)} ${F}  lift ${u.value('shortLength', lift)} ${Lu}`,
     ],
     w,
   );
   const mass = at(i.now.cylinderMass, c);
   const logged = liftLog ? at(liftLog, c) : Number.NaN;
-  const loggedText = Number.isFinite(logged) ? `${mm(logged)} mm` : 'off the log';
+  const loggedText = Number.isFinite(logged) ? u.text('shortLength', logged) : 'off the log';
   const mTitle = liftLog
-    ? titleWithLegend([`Valve lift  ${mm(lift)} mm (lift log ${loggedText})`, `Lift ${mm(lift)} mm (log ${loggedText})`], `${GLYPH.flat} model ${GLYPH.measured} lift log`, w)
-    : firstFit([`Gas in the cylinder  ${mg(mass)} mg`, `Cylinder ${mg(mass)} mg`], w);
+    ? titleWithLegend([`Valve lift  ${u.text('shortLength', lift)} (lift log ${loggedText})`, `Lift ${u.text('shortLength', lift)} (log ${loggedText})`], `${GLYPH.flat} model ${GLYPH.measured} lift log`, w)
+    : firstFit([`Gas in the cylinder  ${u.text('mass', mass)}`, `Cylinder ${u.text('mass', mass)}`], w);
   const axis = crankAxis(cycleMarks(i.events), common);
   const verdict = i.verdict
-    ? wrapWords(`At IVC: ${i.verdict}.`, w, 2)
+    ? wrapWords(`At IVC: ${restateGauge(i.verdict, u)}.`, w, 2)
     : [fit('At IVC: (no pulse timing for this point)', w)];
   while (verdict.length < 2) verdict.push(fit('', w));
-  if (noteRows > 0) verdict.push(...wrapWords(`At IVO: ${i.openingNote ?? ''}.`, w, 1));
+  if (noteRows > 0) verdict.push(...wrapWords(`At IVO: ${restateGauge(i.openingNote ?? '', u)}.`, w, 1));
   if (measuredRows > 0) verdict.push(...wrapWords(`Measured: ${i.measured?.verdict ?? ''}.`, w, 1));
 
   const lines = [pTitle, ...pLines, fTitle, ...fLines, mTitle, ...mLines, ...axis, ...verdict];

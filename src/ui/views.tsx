@@ -10,7 +10,7 @@ import { valveScreen, type ValveScreenInput } from './valve-screen.js';
 import { runnerScreen, type RunnerScreenInput } from './runner-screen.js';
 import { sweepScreen, type SweepScreenInput } from './sweep-screen.js';
 import { caseScreen, type CaseScreenInput } from './case-screen.js';
-import { helpLines, tooSmallLines } from './frame-screen.js';
+import { glossaryPage, helpLines, tooSmallLines } from './frame-screen.js';
 
 type WithColor<T> = T & { color: boolean };
 
@@ -30,8 +30,8 @@ export function CasePanel(p: WithColor<CaseScreenInput>): React.JSX.Element {
   return <Lines lines={caseScreen(p)} color={p.color} palette={{ '▶': 'yellow', '▌': 'yellow' }} />;
 }
 
-export function HelpScreen(p: { width: number; rows: number; color: boolean }): React.JSX.Element {
-  return <Lines lines={helpLines(p.width, p.rows)} color={p.color} />;
+export function HelpScreen(p: { width: number; rows: number; color: boolean; page?: 'keys' | 'words'; scroll?: number }): React.JSX.Element {
+  return <Lines lines={p.page === 'words' ? glossaryPage(p.width, p.rows, p.scroll ?? 0) : helpLines(p.width, p.rows)} color={p.color} />;
 }
 
 export function TooSmall(p: { columns: number; rows: number; color: boolean }): React.JSX.Element {

@@ -79,7 +79,7 @@ describe('sweep', () => {
     expect(j.estimates.quarterWaveFrequency).toBeGreaterThan(0);
   });
 
-  it('--csv writes a header with units, refuses to overwrite without --force', async () => {
+  it('--csv writes SI values under a header whose names end in the unit, as run --csv does; refuses to overwrite without --force', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'tw-sweep-'));
     const argv = ['sweep', DEMO, '--rpm', '6000:7000:500', ...FAST, '--csv', 'out.csv'];
     const r = await cli(argv, dir);
@@ -87,8 +87,16 @@ describe('sweep', () => {
     const text = readFileSync(join(dir, 'out.csv'), 'utf8');
     const lines = text.trim().split('\n');
     expect(lines).toHaveLength(4);
-    expect(lines[0]).toMatch(/^speed \[rpm\],volumetric efficiency \[%\],torque estimate \[N m\],power estimate \[kW\]/);
-    expect(lines[1]!.split(',')[0]).toBe('6000');
+    expect(lines[0]).toMatch(/^speed_rpm,volumetric_efficiency,torque_estimate_N_m,power_estimate_W,mass_imbalance,converged,cycles,trapped_mass_kg,residual_fraction,ivc_cylinder_pressure_Pa,valve_pressure_at_ivc_Pa,valve_pressure_at_ivc_vs_ambient_Pa,/);
+    const cells = lines[1]!.split(',');
+    expect(cells[0]).toBe('6000');
+    // SI: ηv a fraction near 1, the trapped mass in kg (a 450 cc single: under a gram), the IVC pressure in Pa
+    expect(Number(cells[1])).toBeGreaterThan(0.5);
+    expect(Number(cells[1])).toBeLessThan(2);
+    expect(Number(cells[7])).toBeLessThan(1e-3);
+    expect(Number(cells[9])).toBeGreaterThan(5e4);
+    // against the ambient (101325 Pa in the demo): the absolute value less the ambient
+    expect(Number(cells[11])).toBeCloseTo(Number(cells[10]) - 101325, 6);
     writeFileSync(join(dir, 'out.csv'), 'mine\n');
     const again = await cli(argv, dir);
     expect(again.code).toBe(2);
@@ -148,16 +156,16 @@ describe('compare', () => {
 });
 
 describe('tune --csv', () => {
-  it('writes one row per design and speed, the varied value in the unit typed', async () => {
+  it('writes one row per design and speed in SI, the header naming each unit (the varied value too)', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'tw-tune-'));
     const r = await cli(['tune', DEMO, '--vary', 'runner.length=300mm:400mm:100mm', '--rpm', '6000:7000:500', ...FAST, '--csv', 't.csv'], dir);
     expect(r.code).toBe(0);
     const lines = readFileSync(join(dir, 't.csv'), 'utf8').trim().split('\n');
     expect(lines[0]).toBe(
-      'runner.length [mm],speed [rpm],volumetric efficiency [%],torque estimate [N m],power estimate [kW],converged,band mean volumetric efficiency [%],rank',
+      'runner.length_m,speed_rpm,volumetric_efficiency,torque_estimate_N_m,power_estimate_W,converged,band_mean_volumetric_efficiency,rank',
     );
     expect(lines).toHaveLength(1 + 2 * 3);
-    expect(lines[1]!.startsWith('300,6000,')).toBe(true);
-    expect(lines[6]!.startsWith('400,7000,')).toBe(true);
+    expect(lines[1]!.startsWith('0.3,6000,')).toBe(true);
+    expect(lines[6]!.startsWith('0.4,7000,')).toBe(true);
   });
 });

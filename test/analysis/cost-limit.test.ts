@@ -21,7 +21,7 @@ describe('cost estimate against the steps the stepper takes', () => {
     ['cases/airbox-single.yaml', 'characteristics', 4000],
     ['cases/enduro-single.yaml', 'conservative', 6000],
     ['cases/resonator-single.yaml', 'conservative', 7000],
-  ])('%s, %s, %d rpm: points within 10 %% (pipes split at junctions and extended by end corrections), steps a cycle within 15 %%', async (file, scheme, rpm) => {
+  ])('%s, %s, %d rpm: points within 10 per cent (pipes split at junctions and extended by end corrections), steps a cycle within 15 per cent', async (file, scheme, rpm) => {
     const { model } = await loadCase(file, { cwd: ROOT, rpm, set: [`numerics.scheme=${scheme}`] });
     const est = engineCost(model);
     const { result } = simulatePoint(model);

@@ -121,7 +121,7 @@ describe('check: derived geometry and hand estimates', async () => {
   });
   it('Helmholtz estimate f = (a/2π)·√(A/(L·Veff)), Veff = (Vd/2)(rc+1)/(rc−1) (Engelman 1973; form and constants from memory): 202.3 Hz', () => {
     // worked by hand: a 343.23 m/s, A = π · 20² mm², L 0.3 m, Vd 499.557 cm³, Veff = 305.285 cm³ → 202.35 Hz
-    expect(r.out).toMatch(/Helmholtz \(Engelman\)\s+202\.3 Hz/);
+    expect(r.out).toMatch(/Helmholtz, runner\+cylinder\s+202\.3 Hz/);
   });
   it('shows the events as card and as θ', () => {
     expect(r.out).toContain('opens 30.0° BTDC, closes 60.0° ABDC');
@@ -160,7 +160,9 @@ describe('pipe: Sod shock tube through the command (Toro 2009, Table 4.3)', asyn
   it('text output shows a table per snapshot', async () => {
     const t = await cli(['pipe', 'cases/pipe-pulse.yaml']);
     expect(t.code).toBe(0);
-    expect(t.out.match(/x \[m\]\s+p \[kPa\]\s+u \[m\/s\]\s+T \[K\]/g)).toHaveLength(6);
+    expect(t.out.match(/x \[m\]\s+p \[kPa\]\s+u \[m\/s\]\s+T \[°C\]/g)).toHaveLength(6);
+    const imperial = await cli(['pipe', 'cases/pipe-pulse.yaml', '--units', 'imperial']);
+    expect(imperial.out.match(/x \[in\]\s+p \[psi\]\s+u \[ft\/s\]\s+T \[°F\]/g)).toHaveLength(6);
   });
 });
 

@@ -74,7 +74,7 @@ describe('cylinder filling ODE: project integrator against odex', () => {
   }
 
   const ref = reference();
-  it.each([1, 0.5, 0.25])('trapped mass at IVC within 0.5 %% at a %f° step', (step) => {
+  it.each([1, 0.5, 0.25])('trapped mass at IVC within 0.5 per cent at a %f° step', (step) => {
     const mine = project(step);
     expect(Math.abs(mine.m / ref.m - 1)).toBeLessThan(0.005);
     expect(Math.abs(mine.p / ref.p - 1)).toBeLessThan(0.005);

@@ -89,7 +89,7 @@ describe('grid convergence', () => {
     ['conservative', 9500],
     ['characteristics', 4000],
     ['characteristics', 9500],
-  ] as const)('%s: ηv changes by less than 1 %% from the default mesh (10 mm) to half of it at %d rpm', (scheme, rpm) => {
+  ] as const)('%s: ηv changes by less than 1 per cent from the default mesh (10 mm) to half of it at %d rpm', (scheme, rpm) => {
     const a = simulatePoint(testEngine({ rpm, scheme, meshSize: 0.01 })).result.volumetricEfficiency;
     const b = simulatePoint(testEngine({ rpm, scheme, meshSize: 0.005 })).result.volumetricEfficiency;
     expect(Math.abs(b / a - 1)).toBeLessThan(0.01);

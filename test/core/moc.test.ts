@@ -154,7 +154,7 @@ describe('weak pulse reflections (acoustics, common knowledge)', () => {
 });
 
 describe('ringing of a runner (Kinsler et al., Fundamentals of Acoustics; Levine & Schwinger 1948)', () => {
-  it.each(['characteristics', 'conservative'] as const)('%s: closed–open runner rings at a/(4(L + 0.6133r)) within 3 %%', (scheme) => {
+  it.each(['characteristics', 'conservative'] as const)('%s: closed–open runner rings at a/(4(L + 0.6133r)) within 3 per cent', (scheme) => {
     const L = 0.3;
     const r = 0.02;
     const T0 = 293.15;

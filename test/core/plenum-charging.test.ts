@@ -41,7 +41,7 @@ describe('plenum charging: dp/dt = γ·R·T0·ṁ/V', () => {
     [3e-3, 0.045, 7000],
     [6e-3, 0.045, 5000],
     [1.5e-3, 0.035, 8000],
-  ])('in the engine (plenum %f m³, feed %f m, %d rpm): the plenum trace follows the law within 5 %%', (V, d, rpm) => {
+  ])('in the engine (plenum %f m³, feed %f m, %d rpm): the plenum trace follows the law within 5 per cent', (V, d, rpm) => {
     // the measured dp/dθ of the converged cycle against γ·R·T0·(ṁ_feed − ṁ_runner)/(V·ω), with the
     // feed flow through Cd·πd²/4 from the orifice equation (Heywood 1988 App. C) and T0 the ambient's
     const m = testEngine({ rpm, plenum: { volume: V, feedDiameter: d } });

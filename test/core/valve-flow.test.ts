@@ -70,7 +70,7 @@ describe('steady flow at a fixed lift and pressure ratio (Heywood 1988 App. C or
   });
 
   it.each(['conservative', 'characteristics'] as const)(
-    'through the valve-end boundary of a %s runner fed from the ambient: the same 138.6 g/s within 1 %%',
+    'through the valve-end boundary of a %s runner fed from the ambient: the same 138.6 g/s within 1 per cent',
     (scheme) => {
       // a short frictionless runner from a reservoir at p0, T0 (bellmouth, no loss) to the valve, behind it 0.9·p0
       const mesh = buildMesh([{ length: 0.2, diameterStart: 0.05, diameterEnd: 0.05 }], 0.005);

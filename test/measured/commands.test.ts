@@ -40,7 +40,7 @@ describe('sweep --measured', async () => {
     expect(text.out).toMatch(/estimated brake torque \[N·m\] against speed, ● measured/);
     expect(text.out).toContain('●');
     expect(text.out).toMatch(/measured \(cases\/measured\/dyno\.csv\) against the model at the measured speeds/);
-    expect(text.out).toMatch(/^\s+6000\s+36\.3\s+\d+\.\d\s+[+-]\d+\.\d/m);
+    expect(text.out).toMatch(/^\s+6000\s+36\.3\s+\d+\.\d\s+[+−-]\d+\.\d/m);
   });
 });
 

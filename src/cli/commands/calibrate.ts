@@ -14,7 +14,8 @@ import { parseCase, parseSetValue, readCaseText, type LoadedCase } from '../../c
 import { movedFileKeys } from '../../case/measured-files.js';
 import { didYouMean } from '../../case/suggest.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { SET_OPTION, type Command } from '../command.js';
+import { displayUnits, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
+import { METRIC, type Units } from '../../present/units.js';
 import { fix, table } from '../format.js';
 import { dynoOf, MEASURED_OPTION } from '../measured-options.js';
 import { writeFileAtomic } from '../write-file.js';
@@ -33,6 +34,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print the fit as JSON (SI units)' },
   { name: 'out', type: 'string', value: 'NEW.yaml', description: 'write a copy of the case with the fitted values' },
   { name: 'force', type: 'boolean', description: 'allow --out to overwrite an existing file' },
+  UNITS_OPTION,
 ];
 
 function parseFit(text: string | undefined): FitName[] {
@@ -54,8 +56,8 @@ function showValue(name: FitName, v: number): string {
   return name === 'friction' ? fix(v, 5) : fix(v, 4);
 }
 
-function showQuantity(kind: DynoKind, v: number): string {
-  return kind === 'torque' ? `${fix(v, 2)} N·m` : kind === 'power' ? `${fix(v / 1000, 2)} kW` : `${fix(v * 100, 1)} %`;
+function showQuantity(kind: DynoKind, v: number, u: Units = METRIC): string {
+  return kind === 'torque' ? u.text('torque', v, 2) : kind === 'power' ? u.text('power', v, 2) : `${fix(v * 100, 1)} %`;
 }
 
 /** The case text with the fitted values put in (comments kept) and a note on top; file paths rebased to `target`. */
@@ -130,6 +132,7 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
+    const u = displayUnits(args);
     const [file] = expectPositionals(args, ['CASE'], 'calibrate');
     const fit = parseFit(args.string('fit'));
     const out = args.string('out');
@@ -203,12 +206,12 @@ examples
       rows.push(`  ${FIT_PARAMETERS[k].caseKey.padEnd(25)}${showValue(k, v).padStart(8)}  ${span}`);
       rows.push(`  ${''.padEnd(25)}was ${showValue(k, r.start[k]!)}: ${FIT_PARAMETERS[k].words}`.slice(0, 80));
     }
-    const after = ['', `residual: RMS ${fix(r.residual.rmsRelative * 100, 2)} % (${showQuantity(r.quantity, r.residual.rms)}), was ${fix(r.residual.startRmsRelative * 100, 2)} % before the fit`];
+    const after = ['', `residual: RMS ${fix(r.residual.rmsRelative * 100, 2)} % (${showQuantity(r.quantity, r.residual.rms, u)}), was ${fix(r.residual.startRmsRelative * 100, 2)} % before the fit`];
     io.stdout.write([...lines.map((l) => wrapLine(l)), ...rows, ...after.map((l) => wrapLine(l))].join('\n') + '\n');
     io.stdout.write(
       table(
         ['rpm', 'measured', 'model', 'model − meas.', '%'],
-        r.points.map((p) => [fix(p.rpm, 0), showQuantity(r.quantity, p.measured), showQuantity(r.quantity, p.model), showQuantity(r.quantity, p.residual), signed(p.relative * 100, 2)]),
+        r.points.map((p) => [fix(p.rpm, 0), showQuantity(r.quantity, p.measured, u), showQuantity(r.quantity, p.model, u), showQuantity(r.quantity, p.residual, u), signed(p.relative * 100, 2)]),
       ),
     );
     const tail = [

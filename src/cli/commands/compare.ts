@@ -4,13 +4,13 @@
  * side and where each one wins.
  */
 import { printable } from '../../case/printable.js';
-import { networkLine } from '../../analysis/network-line.js';
+import { assemblyLine } from '../../present/network-line.js';
 import { performance } from 'node:perf_hooks';
 import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
 import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
 import { prestartPool, runSweeps } from '../../analysis/worker-pool.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, displayUnits, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
 import { combinedCost, engineCost } from '../../analysis/cost.js';
 import { fix, table } from '../format.js';
 import { writeFileAtomic } from '../write-file.js';
@@ -43,6 +43,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print both curves and the differences as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed with both curves to FILE' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  UNITS_OPTION,
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
 ];
@@ -94,6 +95,7 @@ examples
     prestartPool(jobs); // the workers load while the case does
     const a = await loadForSweep(fileA!, args, io);
     const b = await loadForSweep(fileB!, args, io);
+    const u = displayUnits(args, a);
     const dyno = await dynoOf(args, a, io.cwd);
     const grid = sweepGrid(args, a.case);
     const band = chooseBand(args, a.case, grid);
@@ -162,11 +164,13 @@ examples
       return 0;
     }
     if (csv !== undefined) {
-      const head = ['speed [rpm]', 'A volumetric efficiency [%]', 'B volumetric efficiency [%]', 'B - A [percentage points]', 'better'];
+      // one convention with run and sweep: SI values (ηv as a fraction), the header names end in the unit
+      const head = ['speed_rpm', 'a_volumetric_efficiency', 'b_volumetric_efficiency', 'b_minus_a_volumetric_efficiency', 'better'];
+      const num = (v: number): string => (Number.isFinite(v) ? String(v) : '');
       const rows = rpms.map((rpm, i) => {
         const x = ea[i] ?? Number.NaN;
         const y = eb[i] ?? Number.NaN;
-        return [fix(rpm, 0), (x * 100).toFixed(4), (y * 100).toFixed(4), ((y - x) * 100).toFixed(4), winnerAt(x, y)].join(',');
+        return [num(rpm), num(x), num(y), num(y - x), winnerAt(x, y)].join(',');
       });
       await writeFileAtomic(csv, [head.join(','), ...rows].join('\n') + '\n', { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     }
@@ -174,19 +178,19 @@ examples
     const out: string[] = [
       `compare over ${fix(rpms[0]!, 0)}–${fix(rpms[rpms.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm (${rpms.length * 2} points, ${fix(wallSeconds, 1)} s)`,
       `  A (line ─): ${a.model.name} [${printable(fileA!)}]`,
-      `    ${networkLine(a.model)}`,
+      `    ${assemblyLine(a.model, u)}`,
       `  B (dots ·): ${b.model.name} [${printable(fileB!)}]`,
-      `    ${networkLine(b.model)}`,
+      `    ${assemblyLine(b.model, u)}`,
       '',
       `volumetric efficiency ηv [%] against speed${dyno?.kinds.includes('volumetricEfficiency') ? ` (● measured, ${dyno.file})` : ''}`,
     ];
     out.push(
       ...curveChart(rpms, [{ values: ea.map((v) => v * 100) }, { values: eb.map((v) => v * 100) }], {
         band,
-        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency') } : {}),
+        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency', u) } : {}),
       }),
     );
-    if (dyno) out.push(...outputChart(rpms, [pa, pb], dyno, { band }));
+    if (dyno) out.push(...outputChart(rpms, [pa, pb], dyno, { band }, u));
     out.push('');
     io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n');
     const rows = rpms.map((rpm, i) => {
@@ -195,8 +199,8 @@ examples
       const w = winnerAt(x, y);
       return [fix(rpm, 0), fix(x * 100, 1), fix(y * 100, 1), signed((y - x) * 100, 1), w === 'even' ? '=' : w];
     });
-    io.stdout.write(table(['rpm', 'A ηv %', 'B ηv %', 'B−A pts', 'better'], rows));
-    if (dyno) io.stdout.write(dynoBlockTwo(pa, pb, dyno));
+    io.stdout.write(table([['', 'A', 'B', 'B − A', ''], ['rpm', 'ηv %', 'ηv %', 'points', 'better']], rows));
+    if (dyno) io.stdout.write(dynoBlockTwo(pa, pb, dyno, u));
     const ma = sa.band.meanVolumetricEfficiency;
     const mb = sb.band.meanVolumetricEfficiency;
     const lead = winnerAt(ma, mb);

@@ -5,7 +5,7 @@ import { CaseError } from '../../case/errors.js';
 import { readDataFile } from '../../case/csv.js';
 import { BENCH_DEFAULTS, benchPoints, parseFlowSheet, type FlowSheet } from '../../case/flow-sheet.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import type { Command } from '../command.js';
+import { displayUnits, UNITS_OPTION, type Command } from '../command.js';
 import { fix, table } from '../format.js';
 import { quantityOption } from '../measured-options.js';
 import { writeFileAtomic } from '../write-file.js';
@@ -20,6 +20,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print the points as JSON (SI units)' },
   { name: 'csv', type: 'string', value: 'OUT', description: 'write the points to OUT (header row with units)' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  UNITS_OPTION,
 ];
 
 export function benchSetupOf(args: ReturnType<typeof parseArgs>): BenchSetup {
@@ -91,6 +92,7 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
+    const u = displayUnits(args);
     const [file] = expectPositionals(args, ['FILE'], 'flow');
     const csv = csvAndJsonChoice(args, io);
     const setup = benchSetupOf(args);
@@ -102,10 +104,10 @@ examples
     }
     if (csv !== undefined) await writeFileAtomic(csv, flowCsv(points), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     const unit = FLOW_UNIT[sheet.columns.flow] ?? '';
-    let s = `${file}: ${points.length} lifts, ${setup.valves} valve${setup.valves > 1 ? 's' : ''} of ${fix(setup.diameter * 1000, 2)} mm\n`;
-    s += `  bench: room ${fix(setup.pressure / 1000, 3)} kPa, ${fix(setup.temperature - 273.15, 1)} °C; test depression ${fix(setup.testPressure / 1000, 3)} kPa (${fix(setup.testPressure / INH2O, 1)} inH2O)\n\n`;
-    const rows = points.map((p, i) => [fix(p.lift * 1000, 2), fix(p.ld, 3), flowText(sheet, i), fix(p.flow * 1000, 2), fix(p.cd, 3), fix(p.cdValveArea, 3)]);
-    s += table(['lift mm', 'L/D', `flow ${unit}`, 'g/s', 'Cd curtain', 'Cd valve'], rows);
+    let s = `${file}: ${points.length} lifts, ${setup.valves} valve${setup.valves > 1 ? 's' : ''} of ${u.text('shortLength', setup.diameter)}\n`;
+    s += `  bench: room ${u.text('barometric', setup.pressure, u.system === 'metric' ? 3 : 2)}, ${u.text('temperature', setup.temperature)}; test depression ${u.text('gauge', setup.testPressure, u.system === 'metric' ? 3 : 2)} (${fix(setup.testPressure / INH2O, 1)} inH2O)\n\n`;
+    const rows = points.map((p, i) => [u.value('shortLength', p.lift), fix(p.ld, 3), flowText(sheet, i), u.value('massFlow', p.flow, 2), fix(p.cd, 3), fix(p.cdValveArea, 3)]);
+    s += table([`lift ${u.label('shortLength')}`, 'L/D', `flow ${unit}`, u.label('massFlow'), 'Cd curtain', 'Cd valve'], rows);
     s += '\nCd curtain: on n·π·D·L, what a case\'s Cd table holds (x = L/D);\nCd valve: on n·π·D²/4.\n';
     s += `In a case (the file name then relative to the case file):\n  intake: { flowFile: ${file}, flowTestPressure: ${fix(setup.testPressure / INH2O, 1)} inH2O,\n            flowDiameter: ${fix(setup.diameter * 1000, 2)} mm }\n`;
     io.stdout.write(s);

@@ -18,7 +18,7 @@ import { resolve } from 'node:path';
 import { shardDesigns } from '../../analysis/shard.js';
 import { CaseError } from '../../case/errors.js';
 import { optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import type { Command } from '../command.js';
+import { displayUnits, UNITS_OPTION, type Command } from '../command.js';
 import { packageVersion } from '../package-root.js';
 import { csvAndJsonChoice } from './sweep.js';
 import { designsChecksum, PART_FORMAT, PART_VERSION, partFingerprint, planTune, writeTuneReport, type DesignOutcome, type TunePart, type TuneRequest } from './tune.js';
@@ -27,6 +27,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'json', type: 'boolean', description: 'print the ranking as JSON (SI units), as tune --json does' },
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per design and speed to FILE, as tune --csv does' },
   { name: 'force', type: 'boolean', description: 'allow --csv to overwrite an existing file' },
+  UNITS_OPTION,
 ];
 
 /** the largest part file read [bytes] */
@@ -159,6 +160,7 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
+    displayUnits(args); // a bad --units is exit 2 before any work
     const files = args.positionals;
     if (files.length === 0) throw new CaseError('merge', 'missing PART.json (usage: tractwave merge PART.json ...; see tractwave merge --help)', 'option');
     const csv = csvAndJsonChoice(args, io);

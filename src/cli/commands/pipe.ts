@@ -8,7 +8,8 @@ import { helmholtzResonator } from '../../analysis/estimates.js';
 import { zeroCrossingFrequency } from '../../analysis/ringing.js';
 import { loadPipeCase, type LoadedPipeCase } from '../../case/load.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { ALLOW_LONG_OPTION, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_LONG_OPTION, displayUnits, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
+import { METRIC, type Units } from '../../present/units.js';
 import { costProblem, pipeCost } from '../../analysis/cost.js';
 import { CaseError } from '../../case/errors.js';
 import { fix, table } from '../format.js';
@@ -16,6 +17,7 @@ import { fix, table } from '../format.js';
 const OPTIONS: OptionSpec[] = [
   { ...SET_OPTION, description: 'override a case value, e.g. --set pipe.length=2m (repeatable)' },
   { name: 'json', type: 'boolean', description: 'print x and the snapshots as JSON (SI units)' },
+  UNITS_OPTION,
   ALLOW_LONG_OPTION,
 ];
 
@@ -27,12 +29,12 @@ export function pipeJson(r: PipeExperimentResult, wallSeconds: number) {
 }
 
 /** an end in words: "closed", "open", "a 3 L volume" */
-function endWords(end: PipeEndModel): string {
-  return typeof end === 'string' ? end : `into a ${fix(end.volume * 1000, 2)} L volume`;
+function endWords(end: PipeEndModel, u: Units): string {
+  return typeof end === 'string' ? end : `into a ${u.text('volume', end.volume)} volume`;
 }
 
 /** What a volume end did: its pressure range, its ringing against the bare-pipe Helmholtz formula. */
-export function volumeLines(m: LoadedPipeCase['model'], r: PipeExperimentResult): string {
+export function volumeLines(m: LoadedPipeCase['model'], r: PipeExperimentResult, u: Units = METRIC): string {
   let s = '';
   for (const v of r.volumes) {
     const end = m.ends[v.side];
@@ -43,7 +45,7 @@ export function volumeLines(m: LoadedPipeCase['model'], r: PipeExperimentResult)
     const area = (Math.PI / 4) * m.pipe.diameter ** 2;
     const estimate = helmholtzResonator(soundSpeed(end.temperature), area, end.volume, m.pipe.length);
     s += `
-  ${v.side} volume: ${fix(lo / 1000, 2)}–${fix(hi / 1000, 2)} kPa over the run`;
+  ${v.side} volume: ${u.value('pressure', lo, 2)}–${u.text('pressure', hi, 2)} over the run`;
     s += Number.isFinite(f)
       ? `, ringing at ${fix(f, 1)} Hz (Helmholtz (a/2π)·√(S/(V·L)) with the bare pipe: ${fix(estimate, 1)} Hz)\n`
       : ` (run longer to see it ring: Helmholtz estimate ${fix(estimate, 1)} Hz, a period of ${fix(1000 / estimate, 1)} ms)\n`;
@@ -51,13 +53,16 @@ export function volumeLines(m: LoadedPipeCase['model'], r: PipeExperimentResult)
   return s;
 }
 
-export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number): string {
+export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number, u: Units = METRIC): string {
   const m = loaded.model;
+  // positions along the pipe: metres, or inches
+  const xUnit = u.system === 'metric' ? 'm' : 'in';
+  const xText = (x: number) => (u.system === 'metric' ? fix(x, 3) : u.value('length', x, 1));
   let s = `${m.name}${loaded.file ? `  (${printable(loaded.file)})` : ''}\n`;
-  s += `  pipe ${fix(m.pipe.length, 3)} m x ${fix(m.pipe.diameter * 1000, 1)} mm, ends: left ${endWords(m.ends.left)}, right ${endWords(m.ends.right)}; `;
+  s += `  pipe ${xText(m.pipe.length)} ${xUnit} x ${u.text('length', m.pipe.diameter)}, ends: left ${endWords(m.ends.left, u)}, right ${endWords(m.ends.right, u)}; `;
   s += `friction ${m.pipe.wallFriction ? 'on' : 'off'}, wall heat transfer ${m.pipe.wallHeatTransfer ? 'on' : 'off'}\n`;
-  s += `  initial split at ${fix(m.initial.split * m.pipe.length, 3)} m: left ${fix(m.initial.left.pressure / 1000, 2)} kPa ${fix(m.initial.left.temperature, 1)} K, `;
-  s += `right ${fix(m.initial.right.pressure / 1000, 2)} kPa ${fix(m.initial.right.temperature, 1)} K\n`;
+  s += `  initial split at ${xText(m.initial.split * m.pipe.length)} ${xUnit}: left ${u.text('pressure', m.initial.left.pressure, 2)} ${u.text('temperature', m.initial.left.temperature)}, `;
+  s += `right ${u.text('pressure', m.initial.right.pressure, 2)} ${u.text('temperature', m.initial.right.temperature)}\n`;
   const n = r.x.length;
   const idx = Array.from({ length: Math.min(TABLE_ROWS, n) }, (_, k) => Math.round((k * (n - 1)) / Math.max(1, Math.min(TABLE_ROWS, n) - 1)));
   r.snapshots.forEach((snap, j) => {
@@ -68,13 +73,13 @@ export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wall
       lo = Math.min(lo, v);
       hi = Math.max(hi, v);
     }
-    s += `\nt = ${fix(snap.time * 1000, 3)} ms   (pressure ${fix(lo / 1000, 2)}–${fix(hi / 1000, 2)} kPa; gas mass ${fix((r.mass[j] ?? NaN) * 1e6, 3)} mg)\n`;
+    s += `\nt = ${fix(snap.time * 1000, 3)} ms   (pressure ${u.value('pressure', lo, 2)}–${u.text('pressure', hi, 2)}; gas mass ${u.text('mass', r.mass[j] ?? NaN, 3)})\n`;
     s += table(
-      ['x [m]', 'p [kPa]', 'u [m/s]', 'T [K]'],
-      idx.map((i) => [fix(r.x[i]!, 3), fix(p[i]! / 1000, 2), fix(snap.velocity[i]!, 1), fix(snap.temperature[i]!, 1)]),
+      [`x [${xUnit}]`, `p ${u.bracket('pressure')}`, `u ${u.bracket('speed')}`, `T ${u.bracket('temperature')}`],
+      idx.map((i) => [xText(r.x[i]!), u.value('pressure', p[i]!, 2), u.value('speed', snap.velocity[i]!, 1), u.value('temperature', snap.temperature[i]!, 1)]),
     );
   });
-  s += volumeLines(m, r);
+  s += volumeLines(m, r, u);
   s += `\n  ${r.stats.nodes} points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
   return s;
 }
@@ -122,7 +127,7 @@ examples
     const r = runPipeExperiment(loaded.model);
     const wallSeconds = (performance.now() - t0) / 1000;
     if (args.flag('json')) io.stdout.write(`${JSON.stringify(pipeJson(r, wallSeconds))}\n`);
-    else io.stdout.write(pipeReport(loaded, r, wallSeconds));
+    else io.stdout.write(pipeReport(loaded, r, wallSeconds, displayUnits(args, loaded)));
     return 0;
   },
 };

@@ -42,7 +42,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'at', type: 'list', value: 'RPM', description: 'also show this operating point besides the best speed (repeatable, or comma-separated)' },
   { name: 'compare', type: 'string', value: 'OTHER.yaml', description: 'a second design, swept over the same speeds and drawn beside' },
   { name: 'measured', type: 'string', value: 'FILE', description: 'dyno sheet (CSV: rpm and torque_Nm, torque_lbft, power_kW, power_hp or ve_pct) drawn as points' },
-  { name: 'units', type: 'string', value: 'metric|imperial', description: 'units of the text and charts (default metric)' },
+  { name: 'units', type: 'string', value: 'metric|imperial', description: "units of the text and charts (default: the case's display.units, else metric)" },
   { name: 'svg', type: 'string', value: 'DIR', description: 'also write each chart as its own SVG file into DIR (for slides)' },
   SET_OPTION,
   JOBS_OPTION,
@@ -51,10 +51,10 @@ const OPTIONS: OptionSpec[] = [
   ALLOW_LONG_OPTION,
 ];
 
-/** The --units value, or exit 2. */
-export function parseUnits(args: ParsedArgs): UnitSystem {
+/** The --units value (else the case's display.units, else metric), or exit 2. */
+export function parseUnits(args: ParsedArgs, caseUnits?: UnitSystem): UnitSystem {
   const t = args.string('units');
-  if (t === undefined) return 'metric';
+  if (t === undefined) return caseUnits ?? 'metric';
   if (!(UNIT_SYSTEMS as readonly string[]).includes(t)) throw new CaseError('--units', `expected ${UNIT_SYSTEMS.join(' or ')}, got '${t}'`, 'option');
   return t as UnitSystem;
 }
@@ -177,7 +177,7 @@ examples
     if (band.note) io.stderr.write(`note: ${band.note}\n`);
 
     const speedsFrom = args.string('rpm') !== undefined ? 'from --rpm' : loaded.case.sweep ? "from the case's sweep key" : 'the default range';
-    const built = await buildReport(data, { generatedAt: stamp(new Date()), version: packageVersion(), units, speedsFrom, jobs });
+    const built = await buildReport(data, { generatedAt: stamp(new Date()), version: packageVersion(), units: parseUnits(args, loaded.case.display?.units ?? units), speedsFrom, jobs });
     const seconds = (performance.now() - t0) / 1000;
 
     const written: string[] = [];

@@ -4,7 +4,7 @@ import { simulatePoint } from '../../core/engine.js';
 import { pulseTiming } from '../../analysis/pulse.js';
 import { CaseError } from '../../case/errors.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, loadCaseFromArgs, RPM_OPTION, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, displayUnits, loadCaseFromArgs, RPM_OPTION, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
 import { engineCost } from '../../analysis/cost.js';
 import { cycleProgress } from '../progress.js';
 import { runJson, runSummary, runWarnings, traceCsv } from '../run-output.js';
@@ -24,6 +24,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'measured-trace', type: 'string', value: 'FILE', description: "a runner pressure trace (CSV: crank_deg, pressure_kPa or pressure_kPa_gauge) to compare with the model (default: the case's measuredTrace)" },
   { name: 'sensor-at', type: 'string', value: 'D', description: "the transducer's distance from the valve along the runner, e.g. 80mm (default: at the valve)" },
   { name: 'tdc-offset', type: 'string', value: 'DEG', description: "added to the trace's crank angles to give θ (default 0)" },
+  UNITS_OPTION,
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
 ];
@@ -90,6 +91,7 @@ always on the ambient density (volumetricEfficiencyBasis).
       checkTarget(svg, '--svg', io, args.flag('force'));
     }
     const loaded = await loadCaseFromArgs(file!, args, io);
+    const u = displayUnits(args, loaded);
     const measured = await traceOf(args, loaded, io.cwd);
     // a file that may not be written is refused before the run, not after it
     if (csv !== undefined) await checkOutputFile(csv, { force: args.flag('force'), option: '--csv', cwd: io.cwd });
@@ -109,8 +111,8 @@ always on the ambient density (volumetricEfficiencyBasis).
     for (const w of warnings) io.stderr.write(`${w}\n`);
     const cmp = measured ? compareTrace(result, loaded.model, measured.byDegree, measured.sensorAt) : undefined;
     if (svg !== undefined) {
-      const { renderSvg, units, valveChart } = await import('../../report/index.js');
-      const chart = valveChart({ rpm: result.rpm, reason: 'asked', result, pulse }, units('metric'), pulse.referencePressure);
+      const { renderSvg, valveChart } = await import('../../report/index.js');
+      const chart = valveChart({ rpm: result.rpm, reason: 'asked', result, pulse }, u, pulse.referencePressure);
       await writeFileAtomic(svg, `<?xml version="1.0" encoding="UTF-8"?>\n${await renderSvg(chart.spec)}\n`, { force: args.flag('force'), option: '--svg', cwd: io.cwd });
     }
     if (args.flag('json')) {
@@ -125,9 +127,9 @@ always on the ambient density (volumetricEfficiencyBasis).
     if (csv !== undefined) {
       await writeFileAtomic(csv, traceCsv(result, loaded.model), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
     }
-    io.stdout.write(runSummary(loaded, result, pulse, wallSeconds));
-    io.stdout.write(supplyBasis(result, loaded.model).text);
-    if (cmp && measured) io.stdout.write(traceLines(cmp, measured, result));
+    io.stdout.write(runSummary(loaded, result, pulse, wallSeconds, u));
+    io.stdout.write(supplyBasis(result, loaded.model, u).text);
+    if (cmp && measured) io.stdout.write(traceLines(cmp, measured, result, u));
     if (csv !== undefined) io.stdout.write(`\nwrote the trace (${result.trace.crank.length} rows, one per crank degree) to ${csv}\n`);
     if (svg !== undefined) io.stdout.write(`${csv === undefined ? '\n' : ''}wrote the valve chart to ${svg}\n`);
     return 0;

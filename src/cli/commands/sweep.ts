@@ -5,7 +5,10 @@
  * Also the pieces `tune` and `compare` share: speed range and band from the
  * options or the case, --jobs, progress on stderr, the curve chart.
  */
-import { networkLine } from '../../analysis/network-line.js';
+import { assemblyLine } from '../../present/network-line.js';
+import { METRIC, type Units } from '../../present/units.js';
+import { signedFixed } from '../../present/number.js';
+import { restateGauge } from '../../present/words.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../../analysis/mass-balance.js';
 import { curveWarnings } from '../../analysis/plausibility.js';
 import type { EngineModel } from '../../core/model.js';
@@ -21,7 +24,7 @@ import { CaseError } from '../../case/errors.js';
 import { loadCase, type LoadedCase } from '../../case/load.js';
 import { speedProblem, type Case } from '../../case/schema.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec, type ParsedArgs } from '../args.js';
-import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, displayUnits, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
 import { fix, table, wrap } from '../format.js';
 import type { CliIo } from '../io.js';
 import { writeFileAtomic } from '../write-file.js';
@@ -237,7 +240,7 @@ export function curveChart(rpms: readonly number[], series: readonly ChartSeries
     min -= 1;
     max += 1;
   }
-  const cfg = { height: CHART_HEIGHT, min, max, format: (x: number) => x.toFixed(1).padStart(7) };
+  const cfg = { height: CHART_HEIGHT, min, max, format: (x: number) => fix(x, 1).padStart(7) };
   const grids = series.map((s, i) =>
     asciichart.plot(resample(s.values, width), i === 0 ? cfg : { ...cfg, symbols: DOT_SYMBOLS }).split('\n'),
   );
@@ -316,10 +319,10 @@ export function tunedList(e: CaseEstimates): string {
 }
 
 /** the hand-estimate lines shown beside a sweep */
-export function estimateLines(e: CaseEstimates, bestRpm: number): string[] {
+export function estimateLines(e: CaseEstimates, bestRpm: number, u: Units = METRIC): string[] {
   const lines = [
-    `  quarter-wave: ${fix(e.quarterWaveFrequency, 1)} Hz (a ${fix(e.soundSpeed, 1)} m/s, runner ${fix(e.runnerLength * 1000, 0)} mm` +
-      ` + ${e.openEnd} end correction ${fix(e.endCorrection * 1000, 1)} mm); tuned speeds N = 120·f/order: ${tunedList(e)}`,
+    `  quarter-wave: ${fix(e.quarterWaveFrequency, 1)} Hz (a ${u.text('speed', e.soundSpeed)} at the ambient temperature, runner ${u.text('length', e.runnerLength, u.system === 'metric' ? 0 : 1)}` +
+      ` + ${e.openEnd} end correction ${u.text('length', e.endCorrection)}); tuned speeds N = 120·f/order: ${tunedList(e)}`,
   ];
   let nearest: { order: number; rpm: number } | undefined;
   for (const t of e.tunedSpeeds) if (!nearest || Math.abs(t.rpm - bestRpm) < Math.abs(nearest.rpm - bestRpm)) nearest = t;
@@ -328,7 +331,7 @@ export function estimateLines(e: CaseEstimates, bestRpm: number): string[] {
     lines.push(`  the simulated best speed is ${fix(Math.abs(off), 1)} % ${off >= 0 ? 'above' : 'below'} the order-${nearest.order} quarter-wave speed`);
   }
   lines.push(
-    `  Helmholtz estimate (Engelman form, constants from memory): ${fix(e.helmholtz.frequency, 1)} Hz, peak near ${fix(e.helmholtz.peakRpm, 0)} rpm`,
+    `  Helmholtz estimate (the runner as the neck of a resonator whose volume is the cylinder at mid-stroke): ${fix(e.helmholtz.frequency, 1)} Hz, peak near 30·f = ${fix(e.helmholtz.peakRpm, 0)} rpm`,
   );
   if (e.plenumFrequency !== null) lines.push(`  plenum resonating through its feed: ${fix(e.plenumFrequency, 1)} Hz`);
   return lines;
@@ -343,12 +346,12 @@ export function assumptionLine(a: OutputAssumptions): string {
 
 const effectWord = { helping: 'helping', neutral: 'neutral', costing: 'costing' } as const;
 
-export function pointRows(points: readonly SweepPoint[]): string[][] {
+export function pointRows(points: readonly SweepPoint[], u: Units = METRIC): string[][] {
   return points.map((p) => [
     fix(p.rpm, 0),
     fix(p.volumetricEfficiency * 100, 1),
-    fix(p.torque, 1),
-    fix(p.power / 1000, 1),
+    u.value('torque', p.torque, 1),
+    u.value('power', p.power, 1),
     signed(p.massImbalance * 100, 2),
     p.converged ? 'yes' : 'NO',
     effectWord[p.pulse.effect],
@@ -369,54 +372,67 @@ export function pointJson(p: SweepPoint) {
   };
 }
 
-export const POINT_HEADER = ['rpm', 'ηv %', 'N·m*', 'kW*', 'imbal %', 'conv', 'wave @IVC', 'peak °', 'order'];
-
-/** what the columns of POINT_HEADER mean */
-export const POINT_LEGEND =
-  "N·m*, kW*: estimated brake torque and power; imbal: the mass balance error of the cycle; wave @IVC: the pressure wave's effect " +
-  "when the valve closes; peak °: its compression peak's offset from IVC (− before, + after); order: f₁·120/N, quarter-wave periods per cycle";
-
-/** fixed decimals with a sign; never "-0.00" */
-export function signed(v: number, d: number): string {
-  const s = fix(v, d);
-  if (Number(s) === 0) return s.replace(/^-/, '');
-  return v > 0 ? `+${s}` : s;
+/** the point table's two header rows: the words, then the units */
+export function pointHeader(u: Units = METRIC): string[][] {
+  return [
+    ['', '', 'torque*', 'power*', 'mass', '', 'wave', 'peak', 'wave'],
+    ['rpm', 'ηv %', u.label('torque'), u.label('power'), 'balance %', 'converged', 'at IVC', 'vs IVC °', 'order'],
+  ];
 }
 
-/** CSV of a sweep: a header row with units, one row per speed */
-export function sweepCsv(points: readonly SweepPoint[]): string {
-  const head = [
-    'speed [rpm]',
-    'volumetric efficiency [%]',
-    'torque estimate [N m]',
-    'power estimate [kW]',
-    'mass imbalance [%]',
-    'converged',
-    'cycles',
-    'trapped mass [mg]',
-    'residual fraction [%]',
-    'IVC cylinder pressure [kPa]',
-    'valve pressure at IVC above reference [kPa]',
-    'compression peak offset from IVC [deg]',
-    'wave order [-]',
-    'wave at IVC',
-  ];
-  const num = (v: number, d: number): string => (Number.isFinite(v) ? v.toFixed(d) : '');
+/** what the columns of the point table mean */
+export const POINT_LEGEND =
+  "torque*, power*: estimated brake torque and power; mass balance: the solver's mass balance error over the cycle; wave at IVC: the pressure wave's effect " +
+  "when the valve closes; peak vs IVC: its compression peak's offset from IVC (− before, + after); wave order: f₁·120/N, quarter-wave periods per cycle";
+
+/** fixed decimals with a sign; never "-0.00" (zero unsigned) */
+export function signed(v: number, d: number): string {
+  return signedFixed(v, d).replace(/^±/, '');
+}
+
+/**
+ * CSV of a sweep: one convention with the run CSV (run-output.ts TRACE_COLUMNS):
+ * SI values, a header row of snake_case names that end in the unit, one row
+ * per speed. The valve pressure at IVC absolute and against the ambient (the
+ * "vs ambient" of the screens).
+ */
+export const SWEEP_CSV_COLUMNS = [
+  'speed_rpm',
+  'volumetric_efficiency',
+  'torque_estimate_N_m',
+  'power_estimate_W',
+  'mass_imbalance',
+  'converged',
+  'cycles',
+  'trapped_mass_kg',
+  'residual_fraction',
+  'ivc_cylinder_pressure_Pa',
+  'valve_pressure_at_ivc_Pa',
+  'valve_pressure_at_ivc_vs_ambient_Pa',
+  'peak_offset_from_ivc_deg',
+  'wave_order',
+  'wave_at_ivc',
+] as const;
+
+export function sweepCsv(points: readonly SweepPoint[], ambientPressure: number): string {
+  const head = SWEEP_CSV_COLUMNS;
+  const num = (v: number): string => (Number.isFinite(v) ? String(v) : '');
   const rows = points.map((p) =>
     [
-      num(p.rpm, 0),
-      num(p.volumetricEfficiency * 100, 4),
-      num(p.torque, 3),
-      num(p.power / 1000, 4),
-      num(p.massImbalance * 100, 4),
+      num(p.rpm),
+      num(p.volumetricEfficiency),
+      num(p.torque),
+      num(p.power),
+      num(p.massImbalance),
       p.converged ? 'yes' : 'no',
       String(p.cycles),
-      num(p.trappedMass * 1e6, 4),
-      num(p.residualFraction * 100, 3),
-      num(p.ivcPressure / 1000, 3),
-      num(p.pulse.atIvc.pressureAboveReference / 1000, 3),
-      p.pulse.peakOffsetFromIvc === null ? '' : num(p.pulse.peakOffsetFromIvc, 2),
-      num(p.pulse.waveOrder, 4),
+      num(p.trappedMass),
+      num(p.residualFraction),
+      num(p.ivcPressure),
+      num(p.pulse.atIvc.pressure),
+      num(p.pulse.atIvc.pressure - ambientPressure),
+      p.pulse.peakOffsetFromIvc === null ? '' : num(p.pulse.peakOffsetFromIvc),
+      num(p.pulse.waveOrder),
       p.pulse.effect,
     ].join(','),
   );
@@ -452,6 +468,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'csv', type: 'string', value: 'FILE', description: 'write one row per speed to FILE (header row with units)' },
   { name: 'svg', type: 'string', value: 'FILE', description: 'write the chart of ηv against speed (band, mean, best speed, tuned speeds) to FILE (SVG)' },
   { name: 'force', type: 'boolean', description: 'allow --csv and --svg to overwrite an existing file' },
+  UNITS_OPTION,
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
 ];
@@ -493,9 +510,18 @@ Torque and power are estimates from ηv with an assumed air-fuel ratio, fuel
 heating value and brake efficiency (case key 'estimate': airFuelRatio,
 fuelHeatingValue, brakeEfficiency; defaults 12.8, 44 MJ/kg, 0.28).
 
-The columns 'wave @IVC' and 'peak−IVC °' say whether the pressure wave at the
-valve helps or costs charge when the valve closes, and where the last
-compression peak came (negative: before closing). 'order' is f₁·120/N.
+The columns 'wave at IVC' and 'peak vs IVC °' say whether the pressure wave
+at the valve helps or costs charge when the valve closes, and where the last
+compression peak came (− before closing, + after). 'wave order' is f₁·120/N.
+'mass balance %' is the solver's own check: runner inlet against valve.
+
+--csv FILE writes SI values (ηv as a fraction, torque in N·m, power in W,
+masses in kg, pressures in Pa) under a header whose names end in the unit:
+speed_rpm, volumetric_efficiency, torque_estimate_N_m, power_estimate_W,
+mass_imbalance, converged, cycles, trapped_mass_kg, residual_fraction,
+ivc_cylinder_pressure_Pa, valve_pressure_at_ivc_Pa,
+valve_pressure_at_ivc_vs_ambient_Pa, peak_offset_from_ivc_deg, wave_order,
+wave_at_ivc. --units changes the text only.
 
 Default range: the case key 'sweep {from, to, step}', else ${DEFAULT_SWEEP.from}:${DEFAULT_SWEEP.to}:${DEFAULT_SWEEP.step};
 default band: the case key 'band {from, to}', else the whole range.
@@ -533,6 +559,7 @@ examples
     const jobs = parseJobs(args);
     prestartPool(jobs); // the workers load while the case does
     const loaded = await loadForSweep(file!, args, io);
+    const u = displayUnits(args, loaded);
     const dyno = await dynoOf(args, loaded, io.cwd);
     const grid = sweepGrid(args, loaded.case);
     const band = chooseBand(args, loaded.case, grid);
@@ -573,13 +600,13 @@ examples
       io.stdout.write(`${JSON.stringify(json)}\n`);
       return 0;
     }
-    if (csv !== undefined) await writeFileAtomic(csv, sweepCsv(points), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
+    if (csv !== undefined) await writeFileAtomic(csv, sweepCsv(points, loaded.model.ambient.pressure), { force: args.flag('force'), option: '--csv', cwd: io.cwd });
 
     const out: string[] = [];
     out.push(
       `${loaded.model.name}: speed sweep ${fix(grid.values[0]!, 0)}–${fix(grid.values[grid.values.length - 1]!, 0)} rpm every ${fix(grid.step, 0)} rpm` +
         ` (${points.length} points, ${jobs} job${jobs === 1 ? '' : 's'}, ${fix(wallSeconds, 1)} s)`,
-      `  ${networkLine(loaded.model)}`,
+      `  ${assemblyLine(loaded.model, u)}`,
       '',
       `volumetric efficiency ηv [%] against speed${dyno?.kinds.includes('volumetricEfficiency') ? ` (● measured, ${dyno.file})` : ''}`,
     );
@@ -587,10 +614,10 @@ examples
       ...curveChart(grid.values, [{ values: points.map((p) => p.volumetricEfficiency * 100) }], {
         band,
         tuned: estimates.tunedSpeeds.map((t) => ({ label: String(t.order), rpm: t.rpm })),
-        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency') } : {}),
+        ...(dyno ? { points: chartPoints(dyno, 'volumetricEfficiency', u) } : {}),
       }),
     );
-    if (dyno) out.push(...outputChart(grid.values, [points], dyno, { band }));
+    if (dyno) out.push(...outputChart(grid.values, [points], dyno, { band }, u));
     out.push('');
     out.push(
       `band ${fix(band.from, 0)}–${fix(band.to, 0)} rpm: mean ηv ${fix(summary.band.meanVolumetricEfficiency * 100, 1)} %` +
@@ -598,16 +625,16 @@ examples
     );
     out.push(`best ηv ${fix(summary.bestVolumetricEfficiency * 100, 1)} % at ${fix(summary.bestRpm, 0)} rpm`);
     const bestPoint = points.find((p) => p.rpm === summary.bestRpm);
-    if (bestPoint) out.push(`why, at ${fix(bestPoint.rpm, 0)} rpm: ${bestPoint.pulse.verdict}`);
+    if (bestPoint) out.push(`why, at ${fix(bestPoint.rpm, 0)} rpm: ${restateGauge(bestPoint.pulse.verdict, u)}`);
     out.push('hand estimates beside the simulation:');
-    out.push(...estimateLines(estimates, summary.bestRpm));
+    out.push(...estimateLines(estimates, summary.bestRpm, u));
     io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n\n');
-    io.stdout.write(table(POINT_HEADER, pointRows(points)));
+    io.stdout.write(table(pointHeader(u), pointRows(points, u)));
     io.stdout.write('\n' + wrapLine(POINT_LEGEND) + '\n');
     io.stdout.write(wrapLine(`* ${assumptionLine(assumptions)}`) + '\n');
     const supply = loaded.model.inlet.kind === 'plenum' ? loaded.model.inlet.supply : undefined;
-    if (supply) io.stdout.write(wrapLine(`ηv is on the ambient density; the plenum is fed from a boost supply at ${fix(supply.pressure / 1000, 1)} kPa, ${fix(supply.temperature, 0)} K (run gives ηv on the supply density too)`) + '\n');
-    if (dyno) io.stdout.write(dynoBlock(points, dyno));
+    if (supply) io.stdout.write(wrapLine(`ηv is on the ambient density; the plenum is fed from a boost supply at ${u.text('pressure', supply.pressure)}, ${u.text('temperature', supply.temperature, 0)} (run gives ηv on the supply density too)`) + '\n');
+    if (dyno) io.stdout.write(dynoBlock(points, dyno, u));
     io.stdout.write('results are estimates from a simplified model: verify them on an engine.\n');
     if (csv !== undefined) io.stdout.write(`wrote ${points.length} rows (one per speed) to ${csv}\n`);
     if (svg !== undefined) io.stdout.write(`wrote the chart of ηv against speed to ${svg}\n`);

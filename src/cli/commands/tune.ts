@@ -31,9 +31,9 @@ import { designAt, edgePaths, HEAT_SHADES, rankDesigns, shadeIndex, shadeRanges,
 import { prestartPool, runSweeps } from '../../analysis/worker-pool.js';
 import { CaseError, isCaseError } from '../../case/errors.js';
 import { buildCase, parseYamlText, readCaseText, type LoadedCase } from '../../case/load.js';
-import { UNITS } from '../../case/units.js';
+import { MODEL_UNIT, UNITS } from '../../case/units.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
-import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, SET_OPTION, type Command } from '../command.js';
+import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, displayUnits, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
 import { fix, table } from '../format.js';
 import type { CliIo } from '../io.js';
 import { packageVersion } from '../package-root.js';
@@ -99,6 +99,7 @@ const OPTIONS: OptionSpec[] = [
   { name: 'budget', type: 'string', value: 'N', description: `with --search: the most designs to simulate (default ${DEFAULT_BUDGET})` },
   ALLOW_EXTREME_OPTION,
   ALLOW_LONG_OPTION,
+  UNITS_OPTION,
 ];
 
 // ---------------------------------------------------------------- the plan
@@ -350,32 +351,44 @@ export function heatMap(
   return out;
 }
 
-/** CSV: one row per design and speed, rows in the given order, the varied values as typed. */
+/** the SI unit of a value typed in `unit`, as a CSV header suffix ("m", "m3", "Pa"); '' for a plain number */
+function siSuffix(unit: string | undefined): string {
+  if (!unit) return '';
+  const kind = UNITS[unit]?.kind;
+  if (!kind || kind === 'dimensionless') return '';
+  return `_${MODEL_UNIT[kind].replace('³', '3').replace('/', '_per_')}`;
+}
+
+/**
+ * CSV: one row per design and speed, rows in the given order. One convention
+ * with run and sweep: SI values, the header names end in the unit (the
+ * varied values too: runner.length_m).
+ */
 function tuneCsv(axes: readonly Axis[], rows: readonly ReportRow[]): string {
   const head = [
-    ...axes.map((a) => (a.spec.grid.unit ? `${a.path} [${a.spec.grid.unit}]` : a.path)),
-    'speed [rpm]',
-    'volumetric efficiency [%]',
-    'torque estimate [N m]',
-    'power estimate [kW]',
+    ...axes.map((a) => `${a.path}${siSuffix(a.spec.grid.unit)}`),
+    'speed_rpm',
+    'volumetric_efficiency',
+    'torque_estimate_N_m',
+    'power_estimate_W',
     'converged',
-    'band mean volumetric efficiency [%]',
+    'band_mean_volumetric_efficiency',
     'rank',
   ];
-  const num = (v: number, d: number): string => (Number.isFinite(v) ? v.toFixed(d) : '');
+  const num = (v: number, _d?: number): string => (Number.isFinite(v) ? String(v) : '');
   const lines: string[] = [];
   for (const r of rows) {
     const d = r.ranked;
     for (const p of d.points)
       lines.push(
         [
-          ...r.typed.map(String),
-          num(p.rpm, 0),
-          num(p.volumetricEfficiency * 100, 4),
-          num(p.torque, 3),
-          num(p.power / 1000, 4),
+          ...r.typed.map((v, k) => num(axes[k]!.toSI(v))),
+          num(p.rpm),
+          num(p.volumetricEfficiency),
+          num(p.torque),
+          num(p.power),
           p.converged ? 'yes' : 'no',
-          num(d.meanVolumetricEfficiency * 100, 4),
+          num(d.meanVolumetricEfficiency),
           String(d.rank),
         ].join(','),
       );
@@ -513,7 +526,7 @@ async function writeReport(
     ...extras.extraText,
   ];
   io.stdout.write(out.map((l) => wrapLine(l)).join('\n') + '\n');
-  const header = ['rank', ...axes.map((a) => a.path), 'band mean ηv %', 'peak ηv %', 'at rpm', 'conv'];
+  const header = ['rank', ...axes.map((a) => a.path), 'band mean ηv %', 'peak ηv %', 'at rpm', 'converged'];
   const shown = rows.length <= TABLE_ALL ? rows : rows.slice(0, TABLE_ROWS);
   const cells = shown.map((r) => [
     String(r.ranked.rank),
@@ -822,6 +835,7 @@ examples
 `,
   async run(argv, io) {
     const args = parseArgs(argv, OPTIONS);
+    displayUnits(args); // a bad --units is exit 2 before any work
     const [file] = expectPositionals(args, ['CASE'], 'tune');
     const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
