@@ -63,7 +63,39 @@ function sweepProcess(jobs: number): ProcessRun {
   return { seconds, sweepSeconds: json.stats.wallSeconds, points: JSON.stringify(json.points) };
 }
 
+/**
+ * What a second thread gives on this machine now: the same arithmetic loop
+ * on one worker, then on two at once. On a quiet 2-core machine two threads
+ * take about the time of one (2× the throughput); when other work already
+ * fills the cores they take about twice as long, and no sweep can gain.
+ */
+async function machineParallelism(): Promise<number> {
+  const { Worker } = await import('node:worker_threads');
+  const code =
+    "const { parentPort } = require('node:worker_threads');" +
+    "parentPort.on('message', (n) => { let x = 0; for (let i = 0; i < n; i++) x = (x * 1103515245 + 12345) & 0x7fffffff; parentPort.postMessage(x); });";
+  const N = 1e8;
+  const timed = async (k: number): Promise<number> => {
+    const ws = Array.from({ length: k }, () => new Worker(code, { eval: true }));
+    // warm each one up first (start-up and compiling are not what is measured)
+    await Promise.all(ws.map((w) => new Promise((r) => (w.once('message', r), w.postMessage(1e6)))));
+    const t0 = performance.now();
+    await Promise.all(ws.map((w) => new Promise((r) => (w.once('message', r), w.postMessage(N)))));
+    const t = performance.now() - t0;
+    await Promise.all(ws.map((w) => w.terminate()));
+    return t;
+  };
+  const one = Math.min(await timed(1), await timed(1));
+  const two = Math.min(await timed(2), await timed(2));
+  return (2 * one) / two;
+}
+
 async function processSection(out: string[]): Promise<void> {
+  const gain = await machineParallelism();
+  out.push(
+    `- what a second thread gives on this machine now (the same arithmetic loop on 1 and on 2 threads at once, best of 2): ${f(gain)}× the throughput of one ` +
+      `(2 on a quiet 2-core machine; near 1 when other work fills the cores, and then no sweep can gain either)`,
+  );
   if (!existsSync(join(ROOT, 'dist', 'tractwave.mjs'))) {
     out.push('- `tractwave sweep` as a process: not measured (run `npm run build` first)');
     return;
