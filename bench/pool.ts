@@ -7,7 +7,8 @@
  *      two print the same points;
  *   2. the view's sweep after an edit on the kept pool: the first point, the
  *      point at the view's speed and the whole curve, and one point's re-run
- *      after a Case-view edit;
+ *      after a Case-view edit, on the engine alone and end to end in the
+ *      running view (key to redraw);
  *   3. the bytes the view writes per frame while it plays the cycle at
  *      80×24, Ink's full redraw against its line-by-line one (the view's
  *      setting), and the frames per second.
@@ -33,7 +34,7 @@ const RANGE = '3000:10250:250'; // 30 speeds
 // the view runs from the bundle, which is built with NODE_ENV=production: React's production build
 if (process.env['NODE_ENV'] === undefined) process.env['NODE_ENV'] = 'production';
 const QUICK = process.argv.includes('--quick');
-/** --only=process|view|bytes: one section */
+/** --only=process|view|edit|bytes: one section */
 const ONLY = process.argv.find((a) => a.startsWith('--only='))?.slice(7);
 
 function median(xs: readonly number[]): number {
@@ -299,10 +300,98 @@ async function bytesSection(out: string[]): Promise<void> {
   }
 }
 
-/** All three sections as markdown lines (bench/run.ts prints and appends them). */
+/**
+ * A Case-view edit in the running view, end to end: from the key that
+ * commits the value to the first write to the terminal after the point came
+ * back (the view's debounce, the point on a warm worker, the redraw).
+ * Runner diameter 40 → 41, 42, … mm: the mesh keeps its points, so each
+ * point starts from the one before it.
+ */
+async function editSection(out: string[]): Promise<void> {
+  for (const key of ['CI', 'CONTINUOUS_INTEGRATION']) if (key in process.env) process.env[key] = 'false';
+  process.env['FORCE_COLOR'] = '1';
+  const built = existsSync(join(ROOT, 'dist', 'ui', 'app.js'));
+  const base = built ? pathToFileURL(join(ROOT, 'dist')).href : pathToFileURL(join(ROOT, 'src')).href;
+  const [js, jsx] = built ? ['js', 'js'] : ['ts', 'tsx'];
+  const React = (await import('react')).default;
+  const { render } = await import('ink');
+  const { App } = (await import(`${base}/ui/app.${jsx}`)) as typeof import('../src/ui/app.js');
+  const { openCase } = (await import(`${base}/ui/case-session.${js}`)) as typeof import('../src/ui/case-session.js');
+  const { threadEngine } = (await import(`${base}/ui/engine-service.${js}`)) as typeof import('../src/ui/engine-service.js');
+  const { VIEW_RENDER_OPTIONS, VIEW_DEBOUNCE_MS } = (await import(`${base}/ui/index.${jsx}`)) as typeof import('../src/ui/index.js');
+  const session = await openCase(DEMO);
+  const threads = threadEngine();
+  let pointDoneAt = Number.NaN;
+  let points = 0;
+  const engine: typeof threads = {
+    ...threads,
+    runPoint: async (model, warm) => {
+      const o = await threads.runPoint(model, warm);
+      pointDoneAt = performance.now();
+      points++;
+      return o;
+    },
+  };
+  const stdout = new CountingStdout();
+  let drawnAt = Number.NaN;
+  const write = stdout.write;
+  stdout.write = (chunk) => {
+    if (Number.isNaN(drawnAt) && !Number.isNaN(pointDoneAt)) drawnAt = performance.now();
+    return write(chunk);
+  };
+  const stdin = new FakeStdin();
+  const app = render(React.createElement(App, { session, engine, color: true, debounceMs: VIEW_DEBOUNCE_MS }), {
+    ...VIEW_RENDER_OPTIONS,
+    patchConsole: false,
+    stdout: stdout as unknown as NodeJS.WriteStream,
+    stdin: stdin as unknown as NodeJS.ReadStream,
+    stderr: new CountingStdout() as unknown as NodeJS.WriteStream,
+  });
+  const sleep = (ms: number): Promise<void> => new Promise((r) => setTimeout(r, ms));
+  const until = async (cond: () => boolean, what: string): Promise<void> => {
+    for (let t = 0; !cond(); t++) {
+      if (t > 600) throw new Error(`${what} never happened`);
+      await sleep(10);
+    }
+  };
+  await until(() => points >= 1, 'the first point');
+  await sleep(500);
+  stdin.send('4'); // the Case view
+  await sleep(100);
+  stdin.send('\u001b[B'); // runner length
+  await sleep(50);
+  stdin.send('\u001b[B'); // runner diameter
+  await sleep(50);
+  const times: number[] = [];
+  for (const mm of ['41', '42', '43', '44', '45', '46']) {
+    stdin.send('\r');
+    await sleep(50);
+    for (const ch of mm) {
+      stdin.send(ch);
+      await sleep(20);
+    }
+    const before = points;
+    pointDoneAt = Number.NaN;
+    drawnAt = Number.NaN;
+    const t0 = performance.now();
+    stdin.send('\r');
+    await until(() => points > before && !Number.isNaN(drawnAt), `the point after runner diameter ${mm} mm`);
+    times.push(drawnAt - t0);
+    await sleep(200);
+  }
+  app.unmount();
+  app.cleanup();
+  await threads.close();
+  out.push(
+    `- a Case-view edit in the view, key to redraw (runner diameter 41…46 mm, colour, 80×24, pool kept warm; load average ${f(os.loadavg()[0] ?? Number.NaN, 1)}): ` +
+      `best ${f(Math.min(...times), 0)} ms, median ${f(median(times), 0)} ms, of which ${VIEW_DEBOUNCE_MS} ms the view's wait after the last key (target ≤ 100 ms)`,
+  );
+}
+
+/** All the sections as markdown lines (bench/run.ts prints and appends them). */
 export async function benchPool(): Promise<string> {
   const out: string[] = ['### Worker pool and the view over a slow link (bench/pool.ts)', ''];
-  const sections = { process: processSection, view: viewSweepSection, bytes: bytesSection };
+  const sections = { process: processSection, view: viewSweepSection, edit: editSection, bytes: bytesSection };
   for (const [name, section] of Object.entries(sections)) {
     if (ONLY !== undefined && ONLY !== name) continue;
     try {
