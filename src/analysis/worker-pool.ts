@@ -27,7 +27,8 @@
  * point at a time, so the threads finish together to within one point.
  *
  * With one job no thread is started: the chains run here, yielding to the
- * event loop between points.
+ * event loop between points. So do they when no worker can start in this
+ * layout (the pool's `failure`), with the same numbers.
  *
  * Workers are started by worker-start.ts (source, compiled and bundle
  * layouts). The bundle's entry check must stay false on a worker thread: an
@@ -281,7 +282,7 @@ export interface ParallelSweepOptions {
 export interface SweepRun {
   /** each sweep's points in its own order; rejects with the first failure */
   done: Promise<SweepPoint[][]>;
-  /** stop: nothing more is reported; points already running finish on their workers and are dropped */
+  /** stop: nothing more is reported, `done` resolves with the points finished so far (the rest are holes); points already running finish on their workers and are dropped */
   cancel: () => void;
 }
 
@@ -343,31 +344,40 @@ export function startSweeps(tasks: readonly SweepTask[], options: ParallelSweepO
     return best;
   };
 
-  if (jobs <= 1 || total === 0) {
-    const doneP = (async () => {
-      for (let c = pick(); c && !stopped; c = pick()) {
-        const { point, warmStart } = sweepPoint(tasks[c.task]!.model, c.rpms[c.next]!, assumptions, c.warm);
-        record(c, point, warmStart);
-        // let the event loop breathe between points (signals, progress output, keys)
-        await new Promise<void>((r) => setImmediate(r));
-      }
-      return out;
-    })();
-    return { done: doneP, cancel: () => (stopped = true) };
+  /** the chains' remaining points on this thread, yielding to the event loop between points */
+  const here = async (): Promise<SweepPoint[][]> => {
+    for (let c = pick(); c && !stopped; c = pick()) {
+      const { point, warmStart } = sweepPoint(tasks[c.task]!.model, c.rpms[c.next]!, assumptions, c.warm);
+      record(c, point, warmStart);
+      // let the event loop breathe between points (signals, progress output, keys)
+      await new Promise<void>((r) => setImmediate(r));
+    }
+    return out;
+  };
+  const pool = jobs > 1 && total > 0 ? (options.pool ?? sharedPool()) : undefined;
+  if (!pool || pool.failure) {
+    // one job, or no worker can start here: the same chains on this thread, so the same numbers
+    return { done: here(), cancel: () => (stopped = true) };
   }
 
-  const pool = options.pool ?? sharedPool();
   pool.grow(jobs);
   let inFlight = 0;
   let settle: { resolve: (v: SweepPoint[][]) => void; reject: (e: Error) => void } = { resolve: () => {}, reject: () => {} };
   const doneP = new Promise<SweepPoint[][]>((resolve, reject) => (settle = { resolve, reject }));
+  let alone = false;
   const fail = (e: Error): void => {
     if (failed || stopped) return;
+    if (pool.failure) {
+      // the workers could not start after all: finish here once the points in flight are back
+      alone = true;
+      if (inFlight === 0) here().then(settle.resolve, settle.reject);
+      return;
+    }
     failed = true;
     settle.reject(e);
   };
   const feed = (): void => {
-    while (!failed && !stopped && inFlight < jobs) {
+    while (!failed && !stopped && !alone && inFlight < jobs) {
       const c = pick();
       if (!c) break;
       c.busy = true;
@@ -379,6 +389,7 @@ export function startSweeps(tasks: readonly SweepTask[], options: ParallelSweepO
           if (failed || stopped) return;
           record(c, point, warmStart);
           if (done === total) settle.resolve(out);
+          else if (alone) fail(pool.failure!);
           else feed();
         },
         (e: unknown) => {
@@ -390,7 +401,14 @@ export function startSweeps(tasks: readonly SweepTask[], options: ParallelSweepO
     }
   };
   feed();
-  return { done: doneP, cancel: () => (stopped = true) };
+  return {
+    done: doneP,
+    cancel: () => {
+      if (stopped) return;
+      stopped = true;
+      if (!failed) settle.resolve(out);
+    },
+  };
 }
 
 function safeCost(model: EngineModel, rpm: number): number {

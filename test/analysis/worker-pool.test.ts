@@ -123,6 +123,27 @@ describe('the pool (fake workers)', () => {
   });
 });
 
+describe('a layout where no worker can start', () => {
+  it('the sweep runs on this thread instead, to the same numbers', async () => {
+    const dead = (): WorkerPool =>
+      new WorkerPool({
+        start: () => {
+          const w = new FakeWorker();
+          queueMicrotask(() => w.emit('exit', 1));
+          return w as unknown as Worker;
+        },
+      });
+    const model = await demo();
+    const rpms = [5000, 5500, 6000, 6500, 7000];
+    const serial = JSON.stringify(runSweepSerial(model, rpms));
+    // found out during the sweep (the first points fail), and known before it
+    const pool = dead();
+    expect(JSON.stringify(await runSweep(model, rpms, { jobs: 2, pool }))).toBe(serial);
+    expect(pool.failure).toBeDefined();
+    expect(JSON.stringify(await runSweep(model, rpms, { jobs: 2, pool }))).toBe(serial);
+  }, 60_000);
+});
+
 describe('one pool per process, on the real core', () => {
   it('two sweeps start the workers once; the numbers are those of the serial run', async () => {
     const model = await demo();
