@@ -333,8 +333,10 @@ export interface ColumnMark {
 /**
  * Two rows under a chart: a tick row (`┬` at each mark, `▲` at the cursor,
  * `═` along the highlighted columns) and a label row. Labels are centred on
- * their tick when there is room, nudged sideways when not, and left out
- * (lowest priority first) when they cannot fit; a left-out mark keeps its tick.
+ * their tick when there is room, nudged sideways when not (up to one label's
+ * width past the tick, so an event a few degrees from TDC keeps its name),
+ * and left out (lowest priority first) when they cannot fit; a left-out mark
+ * keeps its tick.
  */
 export function axisLines(
   marks: readonly ColumnMark[],
@@ -353,6 +355,8 @@ export function axisLines(
     const w = m.label.length;
     const centred = m.col - Math.floor(w / 2);
     const candidates = [centred, m.col, m.col - w + 1, centred + 1, centred - 1, m.col + 1, m.col - w];
+    // crowded (an event a few degrees from TDC): further out, the nearest first, up to one label's width past the tick
+    for (let d = 2; d <= w + 1; d++) candidates.push(m.col + d, m.col - w + 1 - d);
     for (const start of candidates) {
       if (start < 0 || start + w > cols) continue;
       let free = true;

@@ -182,14 +182,23 @@ describe('crank chart and axis', () => {
   it('drops the lowest-priority label when two collide, keeping its tick', () => {
     const [ticks, labels] = axisLines(
       [
-        { col: 5, label: 'IVC', priority: 0 },
-        { col: 6, label: 'BDC', priority: 1 },
+        { col: 4, label: 'IVC', priority: 0 },
+        { col: 5, label: 'BDC', priority: 1 },
       ],
-      { width: 12, gutter: 0 },
+      { width: 9, gutter: 0 },
     );
     expect(labels).toContain('IVC');
     expect(labels).not.toContain('BDC');
-    expect(ticks[6]).toBe('┬');
+    expect(ticks[5]).toBe('┬');
+  });
+
+  it('moves a crowded label further out rather than dropping it: EVC 20° ATDC beside TDC at 80 columns', () => {
+    // 72 columns for 720°: TDC at column 0, EVC at column 2, IVO at column 70
+    const [ticks, labels] = crankAxis(cycleMarks(events), { width: 80, gutter: 8, from: 0, span: 720 });
+    for (const name of ['IVO', 'IVC', 'EVO', 'EVC', 'TDC', 'BDC']) expect(labels).toContain(name);
+    expect([...ticks][8 + 2]).toBe('┬');
+    // within one label's width of its tick
+    expect(labels.indexOf('EVC') - 8 - 2).toBeLessThanOrEqual(4);
   });
 
   it('shows only the marks inside a zoomed window', () => {
