@@ -37,7 +37,9 @@ export function headerLine(o: {
   running: boolean;
 }): string {
   const tabs = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : ` ${k + 1} ${VIEW_TITLES[v]} `)).join('');
-  const tabsShort = VIEWS.map((v) => (v === o.view ? `[${VIEW_TITLES[v]}]` : ` ${VIEW_TITLES[v]} `)).join('');
+  // shorter forms keep the digits (the keys that go to each view): one space apart, then only the present view named
+  const tabsShort = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : `${k + 1} ${VIEW_TITLES[v]}`)).join(' ');
+  const tabsTiny = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : `${k + 1}`)).join(' ');
   const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${o.running ? ' · running' : ''}`;
   const right = '? help';
   const attempts: [string, boolean][] = [
@@ -45,6 +47,7 @@ export function headerLine(o: {
     [tabsShort, true],
     [tabs, false],
     [tabsShort, false],
+    [tabsTiny, false],
   ];
   for (const [t, withName] of attempts) {
     const fixed = left.length + 2 + t.length + 2 + right.length;
@@ -59,7 +62,7 @@ export function headerLine(o: {
     const a = Math.floor(gap / 2);
     return head + ' '.repeat(a) + t + ' '.repeat(gap - a) + right;
   }
-  return fit(`${left} ${tabsShort}`, o.width);
+  return fit(`${left} ${tabsTiny}`, o.width);
 }
 
 /** Key hints for the bottom line, most useful first. */

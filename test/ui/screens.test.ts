@@ -178,6 +178,16 @@ describe('frame lines', () => {
     expect(h).toContain('6500 rpm');
   });
 
+  it.each([72, 80, 100])('the view tabs keep their digits (the keys 1–4) when the header is short: %i columns, running', (w) => {
+    for (const view of ['valve', 'runner', 'sweep', 'case'] as const) {
+      const h = headerLine({ width: w, name: 'A rather long invented engine name', rpm: 10500, crank: 245, view, running: true });
+      expect([...h]).toHaveLength(w);
+      const k = ['valve', 'runner', 'sweep', 'case'].indexOf(view) + 1;
+      expect(h).toMatch(new RegExp(`\\[${k} [A-Z][a-z]+\\]`));
+      for (const d of [1, 2, 3, 4]) expect(h).toMatch(new RegExp(`(^|[ \\[])${d}( |\\b)`));
+    }
+  });
+
   it.each([72, 80, 120])('the key hints fit %i columns and always offer help and quit', (w) => {
     for (const v of ['valve', 'runner', 'sweep', 'case'] as const) {
       const k = keyHints(v, w, false);
