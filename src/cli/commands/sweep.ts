@@ -493,7 +493,7 @@ Torque and power are estimates from ηv with an assumed air-fuel ratio, fuel
 heating value and brake efficiency (case key 'estimate': airFuelRatio,
 fuelHeatingValue, brakeEfficiency; defaults 12.8, 44 MJ/kg, 0.28).
 
-The columns 'wave @IVC' and 'peak−IVC °' say whether the pressure wave at the
+The columns 'wave @IVC' and 'peak °' say whether the pressure wave at the
 valve helps or costs charge when the valve closes, and where the last
 compression peak came (negative: before closing). 'order' is f₁·120/N.
 
