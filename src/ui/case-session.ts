@@ -16,7 +16,7 @@ import { density } from '../core/gas.js';
 import { sweptVolume } from '../core/kinematics.js';
 import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
 import { fileExists, saveDirFor, saveEditedCase, suggestSavePath, writeFileAtomic } from './save.js';
-import { packageVersion } from '../cli/package-root.js';
+import { packageVersion } from '../case/package-root.js';
 import type { Edit } from './state.js';
 
 export interface SweepPlan {

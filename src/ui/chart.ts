@@ -401,3 +401,37 @@ export function crankScale(o: { width: number; gutter: number; from: number; spa
   const mid = cols - left.length - right.length;
   return ' '.repeat(o.gutter) + (mid >= 1 ? left + ' '.repeat(mid) + right : fitRight(left, cols));
 }
+
+/** the eighth blocks of a sparkline, lowest first */
+export const SPARK = ['▁', '▂', '▃', '▄', '▅', '▆', '▇', '█'] as const;
+
+/**
+ * A one-row chart of per-degree samples against crank angle: each column's
+ * mean as an eighth block between yMin and yMax (a blank where there is no
+ * sample), the top value in the gutter. For the charts the Valve view keeps
+ * small while another is large.
+ */
+export function crankSparkline(values: ArrayLike<number>, o: Omit<CrankChartOptions, 'height' | 'reference'>): string {
+  const cols = Math.max(1, o.width - o.gutter);
+  const bins = crankBins(o.from, o.span, cols);
+  const span = o.yMax - o.yMin;
+  let out = '';
+  for (const bin of bins) {
+    let sum = 0;
+    let n = 0;
+    for (const i of bin) {
+      const v = values[i];
+      if (v === undefined || !Number.isFinite(v)) continue;
+      sum += v;
+      n++;
+    }
+    if (n === 0 || !(span > 0)) {
+      out += ' ';
+      continue;
+    }
+    const f = (sum / n - o.yMin) / span;
+    out += SPARK[Math.min(SPARK.length - 1, Math.max(0, Math.floor(f * SPARK.length)))];
+  }
+  const gutter = o.gutter > 0 ? fitLeft(o.formatY(o.yMax), o.gutter - 1) + '┤' : '';
+  return gutter + out;
+}

@@ -35,12 +35,15 @@ export function headerLine(o: {
   crank: number;
   view: ViewName;
   running: boolean;
+  /** the crank window when zoomed in [deg] (absent: the whole cycle) */
+  zoom?: number | undefined;
 }): string {
   const tabs = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : ` ${k + 1} ${VIEW_TITLES[v]} `)).join('');
   // shorter forms keep the digits (the keys that go to each view): one space apart, then only the present view named
   const tabsShort = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : `${k + 1} ${VIEW_TITLES[v]}`)).join(' ');
   const tabsTiny = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : `${k + 1}`)).join(' ');
-  const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${o.running ? ' · running' : ''}`;
+  const zoom = o.zoom !== undefined && o.zoom < 720 ? ` · zoom ${o.zoom}°` : '';
+  const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${zoom}${o.running ? ' · running' : ''}`;
   const right = '? help';
   const attempts: [string, boolean][] = [
     [tabs, true],

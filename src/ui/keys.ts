@@ -6,7 +6,8 @@
  * The same table feeds the help screen, so the help lists every key there is.
  */
 import type { Action, UiState } from './state.js';
-import { RPM_STEP, VIEWS, reduce } from './state.js';
+import { MAX_PINS, RPM_STEP, VIEWS, reduce } from './state.js';
+import { lineOpOfKey } from './line-edit.js';
 
 /** The subset of Ink's `Key` this module reads. */
 export interface KeyInfo {
@@ -17,6 +18,7 @@ export interface KeyInfo {
   pageUp?: boolean;
   pageDown?: boolean;
   home?: boolean;
+  end?: boolean;
   return?: boolean;
   escape?: boolean;
   ctrl?: boolean;
@@ -59,7 +61,9 @@ export const HELP: readonly HelpGroup[] = [
   {
     title: 'Compare and learn',
     entries: [
-      { keys: 'p', what: 'pin as baseline' },
+      { keys: 'p', what: `pin a baseline (${MAX_PINS})` },
+      { keys: 'b  P', what: 'compare with / clear' },
+      { keys: 'c (Valve)', what: 'chart to enlarge' },
       { keys: 't', what: 'teaching line' },
       { keys: 'm', what: 'measured data on/off' },
     ],
@@ -80,7 +84,10 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '↑ ↓', what: 'choose a value' },
       { keys: 'enter', what: 'type it, enter runs' },
       { keys: ',  .', what: 'step down / up' },
+      { keys: 'ctrl+z', what: 'undo the last edit' },
       { keys: 'w  r', what: 'save case / report' },
+      { keys: 'ctrl+a e ← →', what: 'move in a field' },
+      { keys: 'ctrl+u k w', what: 'cut start/end/word' },
     ],
   },
 ];
@@ -104,7 +111,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     if (s.save.stage !== 'typing') return undefined;
     if (key.escape) return { type: 'cancel' };
     if (key.return) return { type: 'confirm', yes: true };
-    if (key.backspace || key.delete) return { type: 'backspace' };
+    const op = lineOpOfKey(input, key);
+    if (op) return { type: 'lineOp', op };
     if (input && !key.ctrl && !key.meta && isPrintable(input)) return { type: 'type', text: input };
     return undefined;
   }
@@ -113,9 +121,10 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
   if (s.editing !== undefined) {
     if (key.escape) return { type: 'cancel' };
     if (key.return) return { type: 'commitEdit' };
-    if (key.backspace || key.delete) return { type: 'backspace' };
-    // any printable text is shown as typed; commitEdit says when it is not a plain number
-    if (input && !/[\x00-\x1f\x7f]/.test(input)) return { type: 'type', text: input };
+    const op = lineOpOfKey(input, key);
+    if (op) return { type: 'lineOp', op };
+    // any printable text is shown as typed (not a ctrl key); commitEdit says when it is not a plain number
+    if (input && !key.ctrl && !key.meta && !/[\x00-\x1f\x7f]/.test(input)) return { type: 'type', text: input };
     return undefined;
   }
 
@@ -125,6 +134,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     return undefined;
   }
 
+  if (key.ctrl && input === 'z') return { type: 'undo' };
+  if (key.ctrl) return undefined;
   if (key.tab) return { type: 'nextView', dir: key.shift ? -1 : 1 };
   if (key.leftArrow) return { type: 'step', by: key.shift || key.meta ? -10 : -1 };
   if (key.rightArrow) return { type: 'step', by: key.shift || key.meta ? 10 : 1 };
@@ -184,6 +195,12 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'zoom', dir: -1 };
     case 'p':
       return { type: 'pinBaseline' };
+    case 'P':
+      return { type: 'clearPins' };
+    case 'b':
+      return { type: 'cycleBaseline' };
+    case 'c':
+      return { type: 'cycleChart' };
     case 's':
       return { type: 'showView', view: 'sweep' };
     case 'w':

@@ -97,8 +97,8 @@ export function etaPct(v: number): string {
   return Number.isFinite(v) ? `${(v * 100).toFixed(1)} %` : '…';
 }
 
-/** a change of ηv in percentage points, "+3.9 points" (not a relative per cent) */
+/** a change of ηv in percentage points, "+3.9 points" (not a relative per cent); the difference of the two values as etaPct shows them */
 export function etaPoints(now: number, before: number): string {
-  const d = (now - before) * 100;
+  const d = (Math.round(now * 1000) - Math.round(before * 1000)) / 10;
   return `${d >= 0 ? '+' : '−'}${Math.abs(d).toFixed(1)} points`;
 }

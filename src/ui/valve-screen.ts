@@ -4,7 +4,7 @@
  * crank axis with TDC/BDC and the valve events, the cursor, the values at the
  * cursor in each chart's title, and the pulse verdict. Pure.
  */
-import { crankAxis, crankChart, cycleMarks, valueRange, GLYPH, type ChartSeries } from './chart.js';
+import { crankAxis, crankChart, crankSparkline, cycleMarks, valueRange, GLYPH, type ChartSeries } from './chart.js';
 import { firstFit, fit, gps, kpa, kpaSigned, mg, mm, wrapWords } from './text.js';
 
 export interface ValveTraces {
@@ -37,6 +37,8 @@ export interface ValveScreenInput {
   openingNote?: string | undefined;
   /** measured data drawn beside the model (the m key turns it on and off) */
   measured?: ValveMeasured | undefined;
+  /** the chart drawn large (key c); the others are one-line strips when rows are short (default pressure) */
+  large?: 'pressure' | 'flow' | 'mass' | undefined;
 }
 
 export interface ValveMeasured {
@@ -50,12 +52,28 @@ export interface ValveMeasured {
 
 export const VALVE_GUTTER = 7;
 
-/** Chart heights for the rows available to the three charts. */
-export function valveChartRows(chartRows: number): [number, number, number] {
-  const p = Math.max(2, Math.round(chartRows * 0.55));
-  const f = Math.max(1, Math.round(chartRows * 0.27));
-  const m = Math.max(1, chartRows - p - f);
-  return [p, f, m];
+/** below this many chart rows the small charts are one-line strips */
+export const STRIP_BELOW = 20;
+
+/**
+ * Chart heights (pressure, flow, mass) for the rows available to the three
+ * charts: with few rows (an 80×24 window) the large one gets all but one row
+ * for each of the others, drawn as one-line strips; with room, the large one
+ * half and the others a quarter each.
+ */
+export function valveChartRows(chartRows: number, large: 'pressure' | 'flow' | 'mass' = 'pressure'): [number, number, number] {
+  const order = ['pressure', 'flow', 'mass'] as const;
+  const k = order.indexOf(large);
+  const out: [number, number, number] = [1, 1, 1];
+  if (chartRows < STRIP_BELOW) {
+    out[k] = Math.max(2, chartRows - 2);
+    return out;
+  }
+  const big = Math.round(chartRows * 0.5);
+  const small = Math.floor((chartRows - big) / 2);
+  out[k] = chartRows - 2 * small;
+  for (let j = 0; j < 3; j++) if (j !== k) out[j] = small;
+  return out;
 }
 
 function at(a: ArrayLike<number>, crank: number): number {
@@ -73,7 +91,7 @@ export function valveScreen(i: ValveScreenInput): string[] {
   const liftLog = i.measured?.lift;
   const measuredRows = i.measured?.verdict ? 1 : 0;
   const fixed = 3 /* titles */ + 2 /* axis */ + 2 /* verdict */ + noteRows + measuredRows;
-  const [hp, hf, hm] = valveChartRows(Math.max(4, i.rows - fixed));
+  const [hp, hf, hm] = valveChartRows(Math.max(4, i.rows - fixed), i.large ?? 'pressure');
   const g = VALVE_GUTTER;
   const series = (pick: (t: ValveTraces) => ArrayLike<number>, scale: number): ChartSeries[] => {
     const s: ChartSeries[] = [];
@@ -82,6 +100,11 @@ export function valveScreen(i: ValveScreenInput): string[] {
     return s;
   };
   const common = { width: w, gutter: g, from: i.from, span: i.span, cursor: i.crank };
+  /** a chart of height 1 is a one-line strip of the present result */
+  const draw = (s: ChartSeries[], height: number, o: { yMin: number; yMax: number; formatY: (v: number) => string; reference?: number }): string[] =>
+    height <= 1
+      ? [crankSparkline((s.find((x) => x.style === 'line') ?? s[0])?.values ?? [], { ...common, yMin: o.yMin, yMax: o.yMax, formatY: o.formatY })]
+      : crankChart(s, { ...common, height, ...o });
 
   // pressure [kPa]: at the valve, or with a measured trace at its sensor, the model's and the measured
   const atSensor = trace !== undefined && trace.sensorAt > 0;
@@ -92,28 +115,21 @@ export function valveScreen(i: ValveScreenInput): string[] {
     pS.map((s) => s.values),
     { include: [i.reference / 1000], minSpan: 2, pad: 0.04 },
   );
-  const pLines = crankChart(pS, {
-    ...common,
-    height: hp,
-    yMin: pR.min,
-    yMax: pR.max,
-    formatY: label1,
-    reference: i.reference / 1000,
-  });
+  const pLines = draw(pS, hp, { yMin: pR.min, yMax: pR.max, formatY: label1, reference: i.reference / 1000 });
   // flow [g/s]
   const fS = series((t) => t.valveFlow, 1e3);
   const fR = valueRange(
     fS.map((s) => s.values),
     { include: [0], minSpan: 1, pad: 0.04 },
   );
-  const fLines = crankChart(fS, { ...common, height: hf, yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
+  const fLines = draw(fS, hf, { yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
   // mass [mg], or with a lift log the valve lift [mm], the model's and the logged
   const mS = liftLog ? [{ values: scaled(i.now.lift, 1e3), style: 'line' as const }, { values: scaled(liftLog, 1e3), style: 'measured' as const }] : series((t) => t.cylinderMass, 1e6);
   const mR = valueRange(
     mS.map((s) => s.values),
     { minSpan: 1 },
   );
-  const mLines = crankChart(mS, { ...common, height: hm, yMin: mR.min, yMax: mR.max, formatY: label1 });
+  const mLines = draw(mS, hm, { yMin: mR.min, yMax: mR.max, formatY: label1 });
 
   const c = i.crank;
   const p = atSensor ? at(trace.model, c) : at(i.now.valvePressure, c);

@@ -209,7 +209,7 @@ describe('frame lines', () => {
     expect(text).toContain('Safety');
     expect(text).toContain('regulations');
     expect(text).not.toContain('…'); // nothing cut
-    for (const k of ['← →', '[ ]', 'space', 'tab', '+ -', 'n  N', 'z  Z', 'p', 't', 'enter', 'w', 's  x', 'ctrl+c']) expect(text).toContain(k);
+    for (const k of ['← →', '[ ]', 'space', 'tab', '+ -', 'n  N', 'z  Z', 'p', 't', 'enter', 'w', 's  x', 'ctrl+c', 'ctrl+z', 'b  P', 'c (Valve)', 'ctrl+u k w', 'ctrl+a e']) expect(text).toContain(k);
   });
 
   it.each([

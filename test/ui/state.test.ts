@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { keyToAction, reduceApp, type KeyInfo } from '../../src/ui/keys.js';
-import { initialState, nextEventAngle, reduce, RATES, type Action, type UiState } from '../../src/ui/state.js';
+import { AS_LOADED, initialState, nextEventAngle, reduce, RATES, type Action, type UiState } from '../../src/ui/state.js';
 import { START_VALUES, syntheticResult } from './fixtures.js';
 
 function fresh(): UiState {
@@ -243,7 +243,7 @@ describe('the sweep', () => {
     expect(s.sweepStatus).toBe('running');
     expect(s.sweepRequest).toBe(id + 1);
     expect(s.sweepBaseline?.eta).toEqual([0.9, 1.0, 0.95]);
-    expect(s.sweepBaseline?.label).toBe('as loaded');
+    expect(s.sweepBaseline?.label).toBe(AS_LOADED);
     expect(s.sweep?.label).toBe('runner length 310 mm');
     expect(s.sweep?.eta).toEqual([null, null, null]);
     // a point from the old sweep is ignored
