@@ -65,6 +65,8 @@ export interface ChartFrame {
   formatY: (value: number) => string;
   /** draw a horizontal reference line at this value */
   reference?: number;
+  /** label every this many rows between the top and bottom labels too (the row's middle value); default: top and bottom only */
+  labelEvery?: number;
 }
 
 /** The value range of some series, widened so a flat line still has room. */
@@ -239,9 +241,13 @@ export function plotBins(
       : -1;
   for (let r = 0; r < H; r++) {
     let label = '';
-    if (r === 0) label = topLabel;
+    // the row the reference line is drawn on is labelled with it, even the top or bottom row
+    // (a zero line on a row labelled −17.8 reads wrong)
+    if (r === refRow && H >= 3) label = frame.formatY(frame.reference as number);
+    else if (r === 0) label = topLabel;
     else if (r === H - 1) label = bottomLabel;
-    else if (r === refRow && H >= 3) label = frame.formatY(frame.reference as number);
+    else if (frame.labelEvery && frame.labelEvery >= 2 && r % frame.labelEvery === 0 && H - 1 - r >= 2)
+      label = frame.formatY(frame.yMax - ((r + 0.5) * (frame.yMax - frame.yMin)) / H);
     const gutter = frame.gutter > 0 ? fitLeft(label, labelW) + (label ? '┤' : '│') : '';
     lines.push(gutter + (grid[r] ?? []).join(''));
   }

@@ -72,7 +72,7 @@ export function headerLine(o: {
 export function keyHints(view: ViewName, width: number, playing: boolean): string {
   const common = ['←→ 1°', '[ ] 10°', 'n event', `space ${playing ? 'pause' : 'play'}`, 'tab view', '+/- rpm'];
   const byView: Record<ViewName, string[]> = {
-    valve: ['z zoom', 'p pin'],
+    valve: ['z zoom', 'c chart', 'p pin'],
     runner: ['z zoom'],
     sweep: ['s sweep', 'x stop', 'p pin'],
     case: ['↑↓ choose', 'enter type', ', . step', 'w save', 'r report'],

@@ -155,7 +155,7 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const chart = plotBins(
     series,
     bins,
-    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => (v * 100).toFixed(1) },
+    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => (v * 100).toFixed(1), labelEvery: height >= 16 ? 4 : 3 },
     { cursorColumn, shadeColumns: shade },
   );
   // unconverged points as ×
