@@ -89,12 +89,10 @@ export function caseScreen(i: CaseScreenInput): string[] {
         ' · ',
       ),
     );
-    if (b && i.baselineLabel) below.push(fit(`Baseline, ${i.baselineLabel}`, w));
     const pins = i.pins ?? [];
-    if (pins.length > 0) {
-      const text = pins.map((p) => `${p.compared ? '▸' : ''}${p.name} ${etaPct(p.eta)} (${p.differs})`).join(' · ');
-      below.push(...wrapWords(`Pinned (b compares): ${text}`, w, i.rows >= 22 ? 3 : 2));
-    }
+    if (b && i.baselineLabel) below.push(firstFit([`Baseline, ${i.baselineLabel}${pins.length > 0 ? '   (b another, P clears pins)' : ''}`, `Baseline, ${i.baselineLabel}`], w));
+    // one line a pin, the one compared marked
+    for (const p of pins) below.push(fit(`${p.compared ? '▸' : ' '} ${p.name} ${etaPct(p.eta)} (${p.differs})`, w));
   } else {
     below.push(fit(i.running ? 'Running the point…' : 'No result yet.', w));
   }
