@@ -104,6 +104,9 @@ export function helpLines(width: number, rows: number): string[] {
   for (let k = 0; k < n; k++) body.push(fit(`${left[k] ?? ''}  ${right[k] ?? ''}`, w));
   const leave = HELP_LEAVE.map((e) => `${e.keys.replace(/\s+/g, ' or ')}: ${e.what}`).join(' · ');
   const title = firstFit([`Keys of the terminal view — ${leave}`, `Keys — ${leave}`, leave], w);
-  const safety = wrapWords(`Safety: ${SAFETY}`, w, Math.max(2, rows - body.length - 2));
-  return padLines([title, ...body, '', ...safety], rows, w);
+  // the blank line before the caution goes first when rows are short: the caution is never cut for it
+  const whole = wrapWords(`Safety: ${SAFETY}`, w, 100).length;
+  const gap = rows - body.length - 1 - whole >= 1 ? [''] : [];
+  const safety = wrapWords(`Safety: ${SAFETY}`, w, Math.max(2, rows - body.length - 1 - gap.length));
+  return padLines([title, ...body, ...gap, ...safety], rows, w);
 }

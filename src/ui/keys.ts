@@ -6,7 +6,7 @@
  * The same table feeds the help screen, so the help lists every key there is.
  */
 import type { Action, UiState } from './state.js';
-import { MAX_PINS, RPM_STEP, VIEWS, reduce } from './state.js';
+import { RPM_STEP, VIEWS, reduce } from './state.js';
 import { lineOpOfKey } from './line-edit.js';
 
 /** The subset of Ink's `Key` this module reads. */
@@ -53,16 +53,14 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '[ ]  shift+←→', what: 'ten degrees' },
       { keys: 'n  N', what: 'next / prev event' },
       { keys: 'home', what: 'back to 0° (TDC)' },
-      { keys: 'space', what: 'play / pause' },
-      { keys: '< >', what: 'play slower/faster' },
+      { keys: 'space  < >', what: 'play, slower/faster' },
       { keys: 'z  Z', what: 'zoom in / out' },
     ],
   },
   {
     title: 'Compare and learn',
     entries: [
-      { keys: 'p', what: `pin a baseline (${MAX_PINS})` },
-      { keys: 'b  P', what: 'compare with / clear' },
+      { keys: 'p  b  P', what: `pin/compare/clear` },
       { keys: 'c (Valve)', what: 'chart to enlarge' },
       { keys: 't', what: 'teaching line' },
       { keys: 'm', what: 'measured data on/off' },
@@ -81,13 +79,11 @@ export const HELP: readonly HelpGroup[] = [
   {
     title: 'Case view',
     entries: [
-      { keys: '↑ ↓', what: 'choose a value' },
-      { keys: 'enter', what: 'type it, enter runs' },
+      { keys: '↑ ↓  enter', what: 'choose, type a value' },
       { keys: ',  .', what: 'step down / up' },
       { keys: 'ctrl+z', what: 'undo the last edit' },
       { keys: 'w  r', what: 'save case / report' },
-      { keys: 'ctrl+a e ← →', what: 'move in a field' },
-      { keys: 'ctrl+u k w', what: 'cut start/end/word' },
+      { keys: 'ctrl+a e u k w', what: 'edit a field' },
     ],
   },
 ];

@@ -201,6 +201,9 @@ describe('frame lines', () => {
     [72, 21],
     [80, 23],
     [120, 39],
+    // the rows the view gives the help in a 72×22 and an 80×24 window (rowBudget: all but the header and the two bottom lines)
+    [72, 18],
+    [80, 20],
   ])('help fits %i × %i, lists every key with "quit" and the safety caution', (w, rows) => {
     const lines = helpLines(w, rows);
     widthOk(lines, w, rows);
@@ -209,7 +212,7 @@ describe('frame lines', () => {
     expect(text).toContain('Safety');
     expect(text).toContain('regulations');
     expect(text).not.toContain('…'); // nothing cut
-    for (const k of ['← →', '[ ]', 'space', 'tab', '+ -', 'n  N', 'z  Z', 'p', 't', 'enter', 'w', 's  x', 'ctrl+c', 'ctrl+z', 'b  P', 'c (Valve)', 'ctrl+u k w', 'ctrl+a e']) expect(text).toContain(k);
+    for (const k of ['← →', '[ ]', 'space  < >', 'tab', '+ -', 'n  N', 'z  Z', 'p', 't', 'enter', 'w', 's  x', 'ctrl+c', 'ctrl+z', 'p  b  P', 'c (Valve)', 'ctrl+a e u k w']) expect(text).toContain(k);
   });
 
   it.each([
