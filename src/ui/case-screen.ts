@@ -46,8 +46,10 @@ export interface ResultNumbers {
 
 export function caseScreen(i: CaseScreenInput): string[] {
   const w = i.width;
-  const where = i.savedAs ? `saved as ${i.savedAs.path}${i.savedAs.changedSince ? ', changed since' : ''}` : i.file;
-  const title = firstFit([`Case: ${i.name}  (${where})`, `Case: ${i.name}`], w);
+  const base = (p: string): string => p.split(/[\\/]/).pop() ?? p;
+  const where = (p: string): string => (i.savedAs ? `saved as ${p}${i.savedAs.changedSince ? ', changed since' : ''}` : p);
+  const shownFile = i.savedAs?.path ?? i.file;
+  const title = firstFit([`Case: ${i.name}  (${where(shownFile)})`, `Case: ${i.name}  (${where(base(shownFile))})`, `Case: ${i.name}`], w);
   const cursorAt = (text: string): string => withCursor({ text, cursor: i.cursor ?? text.length });
   const labelW = Math.max(...i.fields.map((f) => f.label.length), 10);
   const sel = i.fields[i.selected];
