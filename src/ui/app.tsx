@@ -11,6 +11,7 @@ import type { WarmStart } from '../core/engine.js';
 import type { EngineModel } from '../core/model.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import { compareTrace } from '../analysis/trace-compare.js';
+import { deliveredSinceIvo } from '../analysis/filling.js';
 import { windowStart } from './chart.js';
 import type { CaseSession } from './case-session.js';
 import type { EngineService } from './engine-service.js';
@@ -328,6 +329,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         span={span}
         now={point.result.trace}
         before={compared?.result.trace}
+        delivered={{ now: deliveredSinceIvo(point.result), before: compared ? deliveredSinceIvo(compared.result) : undefined }}
         large={s.bigChart}
         reference={point.ambient}
         exhaustPort={point.result.pipes.some((p) => p.role === 'exhaust') ? point.result.trace.exhaustPortPressure : undefined}

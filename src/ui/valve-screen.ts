@@ -37,6 +37,8 @@ export interface ValveScreenInput {
   openingNote?: string | undefined;
   /** measured data drawn beside the model (the m key turns it on and off) */
   measured?: ValveMeasured | undefined;
+  /** mass delivered through the valve since IVO at each degree [kg] (analysis/filling.ts), of the result and of the baseline */
+  delivered?: { now: ArrayLike<number>; before?: ArrayLike<number> | undefined } | undefined;
   /** the chart drawn large (key c); the others are one-line strips when rows are short (default pressure) */
   large?: 'pressure' | 'flow' | 'mass' | undefined;
 }
@@ -171,7 +173,7 @@ export function valveScreen(i: ValveScreenInput): string[] {
   const loggedText = Number.isFinite(logged) ? `${mm(logged)} mm` : 'off the log';
   const mTitle = liftLog
     ? titleWithLegend([`Valve lift  ${mm(lift)} mm (lift log ${loggedText})`, `Lift ${mm(lift)} mm (log ${loggedText})`], `${GLYPH.flat} model ${GLYPH.measured} lift log`, w)
-    : firstFit([`Gas in the cylinder  ${mg(mass)} mg`, `Cylinder ${mg(mass)} mg`], w);
+    : firstFit(massTitles(mass, i.delivered, c), w);
   const axis = crankAxis(cycleMarks(i.events), common);
   const verdict = i.verdict
     ? wrapWords(`At IVC: ${i.verdict}.`, w, 2)
@@ -182,6 +184,16 @@ export function valveScreen(i: ValveScreenInput): string[] {
 
   const lines = [pTitle, ...pLines, fTitle, ...fLines, mTitle, ...mLines, ...axis, ...verdict];
   return padLines(lines, i.rows, w);
+}
+
+/** The cylinder-mass chart's titles, longest first: with the mass delivered since IVO (and the baseline's) when known. */
+function massTitles(mass: number, delivered: ValveScreenInput['delivered'], c: number): string[] {
+  const d = delivered ? at(delivered.now, c) : Number.NaN;
+  const b = delivered?.before ? at(delivered.before, c) : Number.NaN;
+  const plain = [`Gas in the cylinder  ${mg(mass)} mg`, `Cylinder ${mg(mass)} mg`];
+  if (!Number.isFinite(d)) return plain;
+  const since = `delivered since IVO ${mg(d)} mg${Number.isFinite(b) ? ` (baseline ${mg(b)})` : ''}`;
+  return [`Gas in the cylinder  ${mg(mass)} mg   ·   ${since}`, `Cylinder ${mg(mass)} mg · ${since}`, `Cylinder ${mg(mass)} mg · since IVO ${mg(d)}${Number.isFinite(b) ? ` (base ${mg(b)})` : ''}`, ...plain];
 }
 
 function scaled(a: ArrayLike<number>, k: number): Float64Array {

@@ -16,7 +16,7 @@ import { describe, expect, it } from 'vitest';
 import { loadCase } from '../../src/case/load.js';
 import { simulatePoint } from '../../src/core/engine.js';
 import { deliveredAt, deliveredSinceIvo } from '../../src/analysis/filling.js';
-import { ROOT } from '../cli/helpers.js';
+import { cli, ROOT } from '../cli/helpers.js';
 
 async function point(which: 'short' | 'long', rpm: number) {
   const loaded = await loadCase(join(ROOT, 'cases', `teach-${which}.yaml`), { rpm });
@@ -65,5 +65,15 @@ describe('the teaching pair (common practice, the classic bench demonstration)',
     expect(l.valvePressureAtIvc).toBeGreaterThan(101325);
     expect(s.valvePressureAtIvc).toBeLessThan(101325);
     expect(s.peakReverseFlow).toBeGreaterThan(l.peakReverseFlow);
+  });
+
+  it('`tractwave compare` of the pair at 1000 and 5000 rpm (the README command): even when slow, the long runner ahead when fast', async () => {
+    const r = await cli(['compare', 'cases/teach-short.yaml', 'cases/teach-long.yaml', '--rpm', '1000:5000:4000', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { difference: { rpm: number; difference: number }[] };
+    const at = (rpm: number) => j.difference.find((d) => d.rpm === rpm)?.difference ?? Number.NaN;
+    expect(Math.abs(at(1000))).toBeLessThan(0.02);
+    // B (long) − A (short): the ram is worth points, not a rounding
+    expect(at(5000)).toBeGreaterThan(0.03);
   });
 });

@@ -201,6 +201,16 @@ describe('the Valve view charts at 80×24', () => {
     expect(heights()[0]).toBeGreaterThanOrEqual(8);
   });
 
+  it('the cylinder-mass title reads the mass delivered since IVO, beside the baseline\'s', async () => {
+    const t = start();
+    await t.until('IVC');
+    await t.until(/delivered since IVO -?[\d.]+ mg/);
+    await t.press('4', DOWN, '.');
+    await t.runs(2);
+    await t.press('1');
+    await t.until(/since IVO -?[\d.]+ mg \(baseline -?[\d.]+\)/);
+  });
+
   it('the zoom shows in the header', async () => {
     const t = start();
     await t.until('IVC');
