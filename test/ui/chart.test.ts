@@ -211,6 +211,14 @@ describe('crank chart and axis', () => {
     expect(labelled).toEqual(['1.20', '0.75', '0.35', '0.00']);
   });
 
+  it('a one-line strip: the eighth block of each column\'s mean between the range ends, the top value in the gutter', async () => {
+    const { crankSparkline, SPARK } = await import('../../src/ui/chart.js');
+    // 8 columns over 720°: column c holds degrees 90c … 90c+89, all of value c
+    const values = new Float64Array(720).map((_, k) => Math.floor(k / 90));
+    const line = crankSparkline(values, { width: 12, gutter: 4, from: 0, span: 720, yMin: 0, yMax: 8, formatY: (v) => v.toFixed(0) });
+    expect(line).toBe(`  8┤${SPARK.join('')}`);
+  });
+
   it('moves a crowded label further out rather than dropping it: EVC 20° ATDC beside TDC at 80 columns', () => {
     // 72 columns for 720°: TDC at column 0, EVC at column 2, IVO at column 70
     const [ticks, labels] = crankAxis(cycleMarks(events), { width: 80, gutter: 8, from: 0, span: 720 });
