@@ -574,7 +574,8 @@ export function reduce(s: UiState, a: Action): UiState {
         // put the bad value back, keep the last good result on screen (and drop its undo step)
         return {
           ...s,
-          history: s.history.slice(0, -1),
+          // (an undo took its step already)
+          history: s.request.label.startsWith('undo') ? s.history : s.history.slice(0, -1),
           running: false,
           edits: s.goodEdits,
           values: { ...s.goodValues },

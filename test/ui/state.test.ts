@@ -377,4 +377,20 @@ describe('first-hour rough edges (issue 12)', () => {
     expect(whatDiffers(s.fields, { ...s.values, rpm: 6500 }, s.values)).toBe('engine speed 6000 rpm');
     expect(whatDiffers(s.fields, { ...s.values, 'runner.length': 320, rpm: 6500 }, s.values)).toBe('engine speed 6000 rpm, runner length 300 mm');
   });
+
+  it('a refused edit is put back and leaves no undo step behind', () => {
+    let s = reduce(withPoint(), { type: 'showView', view: 'case' });
+    s = press(press(s, '', { downArrow: true }), '.');
+    s = reduce(s, { type: 'pointDone', id: s.request.id, point: { result: syntheticResult(), label: '', ambient: 101325, upstream: 'ambient' } });
+    expect(s.history).toHaveLength(1);
+    s = press(s, '.');
+    expect(s.history).toHaveLength(2);
+    s = reduce(s, { type: 'pointFailed', id: s.request.id, message: 'too long', badInput: true });
+    expect(s.values['runner.length']).toBe(310);
+    expect(s.history).toHaveLength(1);
+    // ctrl+z then goes back to the case as loaded
+    s = press(s, 'z', { ctrl: true });
+    expect(s.values['runner.length']).toBe(300);
+    expect(s.edits).toEqual([]);
+  });
 });
