@@ -6,49 +6,15 @@
  * the large Valve chart cycling, zoom shown in the header, the save prompt's
  * cursor and the Case title after saving. Each waits for a condition.
  */
-import React from 'react';
 import { afterEach, describe, expect, it } from 'vitest';
-import { cleanup, render } from 'ink-testing-library';
-import { App } from '../../src/ui/app.js';
-import { stripAnsi } from '../../src/ui/text.js';
-import { fakeEngine, fakeSession } from './fixtures.js';
+import { cleanup } from 'ink-testing-library';
+import { startView } from './view-harness.js';
 
 const DOWN = '\u001b[B';
 const LEFT = '\u001b[D';
 const ENTER = '\r';
 const ctrl = (letter: string): string => String.fromCharCode(letter.charCodeAt(0) - 96);
-const WAIT_MS = 5000;
-const tick = (ms = 10): Promise<void> => new Promise((r) => setTimeout(r, ms));
-
-async function waitFor(cond: () => boolean, what: () => string): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > WAIT_MS) throw new Error(`${what()} (waited ${WAIT_MS / 1000} s)`);
-    await tick();
-  }
-}
-
-function start(size = { columns: 80, rows: 24 }) {
-  const session = fakeSession();
-  const engine = fakeEngine();
-  const app = render(<App session={session} engine={engine} size={size} color={false} debounceMs={0} />);
-  const frame = (): string => stripAnsi(app.lastFrame() ?? '');
-  const press = async (...keys: string[]): Promise<void> => {
-    for (const k of keys) {
-      const before = frame();
-      app.stdin.write(k);
-      await waitFor(() => frame() !== before, () => `key ${JSON.stringify(k)} changed nothing on the screen; the frame was:\n${before}`);
-    }
-  };
-  const until = async (text: string | RegExp): Promise<void> => {
-    const has = (): boolean => (typeof text === 'string' ? frame().includes(text) : text.test(frame()));
-    await waitFor(has, () => `the frame never showed ${String(text)}; it is:\n${frame()}`);
-  };
-  const runs = async (n: number): Promise<void> => waitFor(() => engine.runs.length >= n && !frame().includes('Running'), () => `run ${n} never finished; the frame is:\n${frame()}`);
-  /** the line of the Case view that shows one field */
-  const row = (label: string): string => frame().split('\n').find((l) => l.includes(label)) ?? '';
-  return { app, session, engine, frame, press, until, runs, row };
-}
+const start = startView;
 
 afterEach(() => {
   cleanup();
