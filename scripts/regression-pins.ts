@@ -46,6 +46,8 @@ export function engineCases(): string[] {
   return readdirSync(join(ROOT, 'cases'))
     .filter((f) => /\.ya?ml$/.test(f))
     .filter((f) => /^engine:/m.test(readFileSync(join(ROOT, 'cases', f), 'utf8')))
+    // a copy the terminal view saved beside a bundled case is the user's, not a bundled case
+    .filter((f) => !readFileSync(join(ROOT, 'cases', f), 'utf8').startsWith('# Saved by tractwave from '))
     .sort()
     .map((f) => `cases/${f}`);
 }

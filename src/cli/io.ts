@@ -15,6 +15,8 @@ export interface CliIo {
   stdinIsTTY: boolean;
   /** stderr is a terminal (progress displays) */
   stderrIsTTY: boolean;
+  /** rows of the terminal stdout writes to, when it is one */
+  stdoutRows?: number;
   /** working directory relative paths are resolved against */
   cwd: string;
   /** the TERM environment variable ('dumb': no full-screen view) */

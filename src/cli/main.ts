@@ -190,6 +190,7 @@ export async function main(argv: readonly string[] = process.argv.slice(2)): Pro
     stdoutIsTTY: process.stdout.isTTY === true,
     stdinIsTTY: process.stdin.isTTY === true,
     stderrIsTTY: process.stderr.isTTY === true,
+    ...(process.stdout.isTTY === true && process.stdout.rows > 0 ? { stdoutRows: process.stdout.rows } : {}),
     cwd: process.cwd(),
     ...(process.env.TERM !== undefined ? { term: process.env.TERM } : {}),
     env: process.env,

@@ -36,6 +36,8 @@ export function percent(fraction: number, decimals = 1): string {
 
 /** a change of a fraction in percentage points: "+3.9 points" (not a relative per cent) */
 export function points(now: number, before: number, decimals = 1): string {
-  const d = (now - before) * 100;
+  // the difference of the two values as they are shown (each rounded first), so the figures on screen add up
+  const k = 10 ** decimals;
+  const d = (Math.round(now * 100 * k) - Math.round(before * 100 * k)) / k;
   return `${signedFixed(d, decimals).replace(/^±/, '+')} points`;
 }

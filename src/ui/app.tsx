@@ -11,6 +11,7 @@ import type { WarmStart } from '../core/engine.js';
 import type { EngineModel } from '../core/model.js';
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import { compareTrace } from '../analysis/trace-compare.js';
+import { deliveredSinceIvo } from '../analysis/filling.js';
 import { windowStart } from './chart.js';
 import type { CaseSession } from './case-session.js';
 import type { EngineService } from './engine-service.js';
@@ -20,7 +21,7 @@ import { reduceApp, type KeyAction } from './keys.js';
 import { Lines } from './lines.js';
 import { colorWanted } from './palette.js';
 import { FileExistsError } from './save.js';
-import { initialState, playRate, sweepIsStale, zoomSpan, type Action, type PointShown, type UiState } from './state.js';
+import { baselineLabel, baselineName, initialState, pinLetter, playRate, shownBaseline, sweepIsStale, whatDiffers, zoomSpan, type Action, type PointShown, type UiState } from './state.js';
 import type { PipeShown } from './runner-screen.js';
 import type { ValveMeasured } from './valve-screen.js';
 import { teachingLine } from './teach.js';
@@ -236,9 +237,18 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
   const w = p.size.columns;
   const rpm = s.values['rpm'] ?? s.point?.result.rpm ?? 0;
   const budget = rowBudget(p.size.rows, s.teach, s.help);
-  const header = headerLine({ width: w, name: session.name, rpm, crank: s.crank, view: s.view, running: s.running || s.sweepStatus === 'running' });
-  const point = s.point;
   const span = zoomSpan(s);
+  const header = headerLine({
+    width: w,
+    name: session.name,
+    rpm,
+    crank: s.crank,
+    view: s.view,
+    running: s.running || s.sweepStatus === 'running',
+    ...(span < 720 && (s.view === 'valve' || s.view === 'runner') ? { zoom: span } : {}),
+  });
+  const point = s.point;
+  const compared = shownBaseline(s);
   const from = windowStart(s.crank, span);
 
   let body: React.JSX.Element;
@@ -271,15 +281,24 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         rows={budget.body}
         name={session.name}
         file={session.file}
+        savedAs={s.savedAs ? { path: s.savedAs.path, changedSince: JSON.stringify(s.savedAs.edits) !== JSON.stringify(s.edits) } : undefined}
         fields={s.fields}
         values={s.values}
-        baseValues={s.baseline?.values}
+        baseValues={compared?.values}
         selected={s.selected}
         editing={s.editing}
+        cursor={s.cursor}
         running={s.running}
         result={point?.result}
-        baseline={s.baseline?.result}
-        baselineLabel={s.baseline?.label}
+        baseline={compared?.result}
+        baselineLabel={compared ? baselineLabel(s) : undefined}
+        pins={s.pins.map((p, k) => ({
+          name: `pin ${pinLetter(k)}`,
+          eta: p.result.volumetricEfficiency,
+          differs: whatDiffers(s.fields, s.values, p.values),
+          compared: s.compare === k + 1,
+        }))}
+        canUndo={s.history.length > 0}
         save={s.save}
         units={u}
         color={color}
@@ -316,7 +335,9 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         from={from}
         span={span}
         now={point.result.trace}
-        before={s.baseline?.result.trace}
+        before={compared?.result.trace}
+        delivered={{ now: deliveredSinceIvo(point.result), before: compared ? deliveredSinceIvo(compared.result) : undefined }}
+        large={s.bigChart}
         reference={point.ambient}
         exhaustPort={point.result.pipes.some((p) => p.role === 'exhaust') ? point.result.trace.exhaustPortPressure : undefined}
         events={point.result.events}
@@ -399,13 +420,13 @@ export const MASS_WARNING = MASS_IMBALANCE_LIMIT;
 export function statusLine(s: UiState, w: number): string {
   if (s.message) return fit(s.message.text, w);
   const r = s.point?.result;
-  const b = s.baseline?.result;
+  const b = shownBaseline(s)?.result;
   const parts: string[] = [];
   if (s.running) parts.push(`Running ${s.values['rpm'] ?? ''} rpm… (keys keep working)`);
   if (r) {
     parts.push(`ηv ${etaPct(r.volumetricEfficiency)}`);
     if (b) {
-      parts.push(`baseline ${etaPct(b.volumetricEfficiency)} (${etaPoints(r.volumetricEfficiency, b.volumetricEfficiency)})`);
+      parts.push(`${baselineName(s)} ${etaPct(b.volumetricEfficiency)} (${etaPoints(r.volumetricEfficiency, b.volumetricEfficiency)})`);
     }
     parts.push(`trapped ${unitsOf(s.units).text('mass', r.trappedMass)}`);
     parts.push(r.converged ? `${r.cycles} cycles` : `NOT converged in ${r.cycles} cycles`);

@@ -8,6 +8,7 @@ import { formatField } from './fields.js';
 import { etaPct, etaPoints, firstFit, fit, joinFit, wrapWords } from './text.js';
 import { METRIC, type Units } from '../present/units.js';
 import { fixed } from '../present/number.js';
+import { withCursor } from './line-edit.js';
 import { padLines } from './valve-screen.js';
 
 export interface CaseScreenInput {
@@ -15,16 +16,24 @@ export interface CaseScreenInput {
   rows: number;
   name: string;
   file: string;
+  /** the file the edited case was last saved to, and whether it was edited since */
+  savedAs?: { path: string; changedSince: boolean } | undefined;
   fields: readonly FieldDef[];
   values: Readonly<Record<string, number>>;
   /** the values the baseline result was run with */
   baseValues?: Readonly<Record<string, number>> | undefined;
   selected: number;
   editing?: string | undefined;
+  /** the cursor in the text being typed (default: its end) */
+  cursor?: number | undefined;
   running: boolean;
   result?: ResultNumbers | undefined;
   baseline?: ResultNumbers | undefined;
   baselineLabel?: string | undefined;
+  /** the pinned results: name, ηv, what differed from the present design, whether it is the one compared */
+  pins?: readonly { name: string; eta: number; differs: string; compared: boolean }[] | undefined;
+  /** an edit can be taken back (ctrl+z) */
+  canUndo?: boolean | undefined;
   save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; kind?: 'case' | 'report' } | undefined;
   /** display units of the results (the u key); the values keep the units they are typed in */
   units?: Units | undefined;
@@ -41,7 +50,11 @@ export interface ResultNumbers {
 
 export function caseScreen(i: CaseScreenInput): string[] {
   const w = i.width;
-  const title = firstFit([`Case: ${i.name}  (${i.file})`, `Case: ${i.name}`], w);
+  const base = (p: string): string => p.split(/[\\/]/).pop() ?? p;
+  const where = (p: string): string => (i.savedAs ? `saved as ${p}${i.savedAs.changedSince ? ', changed since' : ''}` : p);
+  const shownFile = i.savedAs?.path ?? i.file;
+  const title = firstFit([`Case: ${i.name}  (${where(shownFile)})`, `Case: ${i.name}  (${where(base(shownFile))})`, `Case: ${i.name}`], w);
+  const cursorAt = (text: string): string => withCursor({ text, cursor: i.cursor ?? text.length });
   const labelW = Math.max(...i.fields.map((f) => f.label.length), 10);
   const sel = i.fields[i.selected];
 
@@ -53,16 +66,16 @@ export function caseScreen(i: CaseScreenInput): string[] {
         ? `${i.save.path} already exists. Overwrite it? y = yes, n = choose another name`
         : i.save.stage === 'typing'
           ? report
-            ? `Write the report of this case (HTML) to: ${i.save.path}▌   (enter writes, esc cancels)`
-            : `Save the changed case as: ${i.save.path}▌   (enter saves, esc cancels)`
+            ? `Write the report of this case (HTML) to: ${cursorAt(i.save.path)}   (enter writes, esc cancels)`
+            : `Save the changed case as: ${cursorAt(i.save.path)}   (enter saves, esc cancels)`
           : report
             ? `Writing the report to ${i.save.path} … (a sweep and the best speed run first: a few seconds)`
             : `Saving to ${i.save.path} …`;
     below.push(...wrapWords(prompt, w, 2));
   } else if (i.editing !== undefined && sel) {
-    below.push(...wrapWords(`Type the new ${sel.label.toLowerCase()} in ${sel.unit}; enter runs it, esc keeps the old value.`, w, 2));
+    below.push(...wrapWords(`Type the new ${sel.label.toLowerCase()} in ${sel.unit}; enter runs it, esc keeps the old value; ← → ctrl+a/e move, ctrl+u clears.`, w, 2));
   } else if (sel) {
-    below.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it, w saves, r writes a report.`, w, 2));
+    below.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it${i.canUndo ? ', ctrl+z undoes' : ''}, w saves, r writes a report.`, w, 2));
   }
   below.push(fit('', w));
   const r = i.result;
@@ -82,7 +95,10 @@ export function caseScreen(i: CaseScreenInput): string[] {
         ' · ',
       ),
     );
-    if (b && i.baselineLabel) below.push(fit(`Baseline: ${i.baselineLabel}`, w));
+    const pins = i.pins ?? [];
+    if (b && i.baselineLabel) below.push(firstFit([`Baseline, ${i.baselineLabel}${pins.length > 0 ? '   (b another, P clears pins)' : ''}`, `Baseline, ${i.baselineLabel}`], w));
+    // one line a pin, the one compared marked
+    for (const p of pins) below.push(fit(`${p.compared ? '▸' : ' '} ${p.name} ${etaPct(p.eta)} (${p.differs})`, w));
   } else {
     below.push(fit(i.running ? 'Running the point…' : 'No result yet.', w));
   }
@@ -95,7 +111,7 @@ export function caseScreen(i: CaseScreenInput): string[] {
     const index = first + k;
     const v = i.values[f.path];
     const isSel = index === i.selected;
-    const value = isSel && i.editing !== undefined ? `${i.editing}▌` : v !== undefined ? formatField(f, v) : '—';
+    const value = isSel && i.editing !== undefined ? cursorAt(i.editing) : v !== undefined ? formatField(f, v) : '—';
     const was = i.baseValues?.[f.path];
     const change = was !== undefined && v !== undefined && formatField(f, was) !== formatField(f, v) ? `(baseline ${formatField(f, was)})` : '';
     const more = k === 0 && first > 0 ? '↑' : k === shown.length - 1 && first + room < i.fields.length ? '↓' : ' ';

@@ -16,7 +16,7 @@ import { density } from '../core/gas.js';
 import { sweptVolume } from '../core/kinematics.js';
 import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
 import { fileExists, saveDirFor, saveEditedCase, suggestSavePath, writeFileAtomic } from './save.js';
-import { packageVersion } from '../cli/package-root.js';
+import { packageVersion } from '../case/package-root.js';
 import type { Edit } from './state.js';
 
 export interface SweepPlan {
@@ -135,9 +135,17 @@ export function fieldValues(loaded: LoadedCase): { fields: FieldDef[]; values: R
     rpm: c.rpm,
     'runner.length': plainRunner ? c.runner.sections[0]?.length : undefined,
     'runner.diameter': plainRunner ? c.runner.sections[0]?.diameterStart : undefined,
+    'runner.entryLoss': c.runner.entryLoss,
     'inlet.volume': c.inlet.kind === 'plenum' ? c.inlet.volume : undefined,
+    'inlet.feedDiameter': c.inlet.kind === 'plenum' ? c.inlet.feedDiameter : undefined,
+    'inlet.feedCd': c.inlet.kind === 'plenum' && c.inlet.feedDiameter !== undefined ? c.inlet.feedCd : undefined,
     'inlet.snorkel.length': snorkel?.length,
     'inlet.snorkel.diameter': snorkel?.diameterStart,
+    'inlet.snorkel.entryLoss': c.inlet.kind === 'plenum' ? c.inlet.snorkel?.entryLoss : undefined,
+    'intake.diameter': c.intake.diameter,
+    // a lift log gives the lift: not offered for editing
+    'intake.maxLift': c.intake.liftFile === undefined ? c.intake.maxLift : undefined,
+    'engine.compressionRatio': c.engine.compressionRatio,
     'exhaust.pipe.length': exhaustPipe?.length,
     'exhaust.pipe.diameter': exhaustPipe?.diameterStart,
     // a valve with a lift log takes its events from the log: not offered for editing

@@ -65,6 +65,8 @@ export interface ChartFrame {
   formatY: (value: number) => string;
   /** draw a horizontal reference line at this value */
   reference?: number;
+  /** label every this many rows between the top and bottom labels too (the row's middle value); default: top and bottom only */
+  labelEvery?: number;
 }
 
 /** The value range of some series, widened so a flat line still has room. */
@@ -239,9 +241,13 @@ export function plotBins(
       : -1;
   for (let r = 0; r < H; r++) {
     let label = '';
-    if (r === 0) label = topLabel;
+    // the row the reference line is drawn on is labelled with it, even the top or bottom row
+    // (a zero line on a row labelled −17.8 reads wrong)
+    if (r === refRow && H >= 3) label = frame.formatY(frame.reference as number);
+    else if (r === 0) label = topLabel;
     else if (r === H - 1) label = bottomLabel;
-    else if (r === refRow && H >= 3) label = frame.formatY(frame.reference as number);
+    else if (frame.labelEvery && frame.labelEvery >= 2 && r % frame.labelEvery === 0 && H - 1 - r >= 2)
+      label = frame.formatY(frame.yMax - ((r + 0.5) * (frame.yMax - frame.yMin)) / H);
     const gutter = frame.gutter > 0 ? fitLeft(label, labelW) + (label ? '┤' : '│') : '';
     lines.push(gutter + (grid[r] ?? []).join(''));
   }
@@ -333,8 +339,10 @@ export interface ColumnMark {
 /**
  * Two rows under a chart: a tick row (`┬` at each mark, `▲` at the cursor,
  * `═` along the highlighted columns) and a label row. Labels are centred on
- * their tick when there is room, nudged sideways when not, and left out
- * (lowest priority first) when they cannot fit; a left-out mark keeps its tick.
+ * their tick when there is room, nudged sideways when not (up to one label's
+ * width past the tick, so an event a few degrees from TDC keeps its name),
+ * and left out (lowest priority first) when they cannot fit; a left-out mark
+ * keeps its tick.
  */
 export function axisLines(
   marks: readonly ColumnMark[],
@@ -353,6 +361,8 @@ export function axisLines(
     const w = m.label.length;
     const centred = m.col - Math.floor(w / 2);
     const candidates = [centred, m.col, m.col - w + 1, centred + 1, centred - 1, m.col + 1, m.col - w];
+    // crowded (an event a few degrees from TDC): further out, the nearest first, up to one label's width past the tick
+    for (let d = 2; d <= w + 1; d++) candidates.push(m.col + d, m.col - w + 1 - d);
     for (const start of candidates) {
       if (start < 0 || start + w > cols) continue;
       let free = true;
@@ -396,4 +406,38 @@ export function crankScale(o: { width: number; gutter: number; from: number; spa
   const right = `${Math.round(mod(o.from + o.span - 1, 720))}°`;
   const mid = cols - left.length - right.length;
   return ' '.repeat(o.gutter) + (mid >= 1 ? left + ' '.repeat(mid) + right : fitRight(left, cols));
+}
+
+/** the eighth blocks of a sparkline, lowest first */
+export const SPARK = ['▁', '▂', '▃', '▄', '▅', '▆', '▇', '█'] as const;
+
+/**
+ * A one-row chart of per-degree samples against crank angle: each column's
+ * mean as an eighth block between yMin and yMax (a blank where there is no
+ * sample), the top value in the gutter. For the charts the Valve view keeps
+ * small while another is large.
+ */
+export function crankSparkline(values: ArrayLike<number>, o: Omit<CrankChartOptions, 'height' | 'reference'>): string {
+  const cols = Math.max(1, o.width - o.gutter);
+  const bins = crankBins(o.from, o.span, cols);
+  const span = o.yMax - o.yMin;
+  let out = '';
+  for (const bin of bins) {
+    let sum = 0;
+    let n = 0;
+    for (const i of bin) {
+      const v = values[i];
+      if (v === undefined || !Number.isFinite(v)) continue;
+      sum += v;
+      n++;
+    }
+    if (n === 0 || !(span > 0)) {
+      out += ' ';
+      continue;
+    }
+    const f = (sum / n - o.yMin) / span;
+    out += SPARK[Math.min(SPARK.length - 1, Math.max(0, Math.floor(f * SPARK.length)))];
+  }
+  const gutter = o.gutter > 0 ? fitLeft(o.formatY(o.yMax), o.gutter - 1) + '┤' : '';
+  return gutter + out;
 }

@@ -36,16 +36,22 @@ export function headerLine(o: {
   crank: number;
   view: ViewName;
   running: boolean;
+  /** the crank window when zoomed in [deg] (absent: the whole cycle) */
+  zoom?: number | undefined;
 }): string {
   const tabs = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : ` ${k + 1} ${VIEW_TITLES[v]} `)).join('');
-  const tabsShort = VIEWS.map((v) => (v === o.view ? `[${VIEW_TITLES[v]}]` : ` ${VIEW_TITLES[v]} `)).join('');
-  const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${o.running ? ' · running' : ''}`;
+  // shorter forms keep the digits (the keys that go to each view): one space apart, then only the present view named
+  const tabsShort = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : `${k + 1} ${VIEW_TITLES[v]}`)).join(' ');
+  const tabsTiny = VIEWS.map((v, k) => (v === o.view ? `[${k + 1} ${VIEW_TITLES[v]}]` : `${k + 1}`)).join(' ');
+  const zoom = o.zoom !== undefined && o.zoom < 720 ? ` · zoom ${o.zoom}°` : '';
+  const left = `${o.rpm.toFixed(0)} rpm  θ ${String(o.crank).padStart(3)}°${zoom}${o.running ? ' · running' : ''}`;
   const right = '? help';
   const attempts: [string, boolean][] = [
     [tabs, true],
     [tabsShort, true],
     [tabs, false],
     [tabsShort, false],
+    [tabsTiny, false],
   ];
   for (const [t, withName] of attempts) {
     const fixed = left.length + 2 + t.length + 2 + right.length;
@@ -60,14 +66,14 @@ export function headerLine(o: {
     const a = Math.floor(gap / 2);
     return head + ' '.repeat(a) + t + ' '.repeat(gap - a) + right;
   }
-  return fit(`${left} ${tabsShort}`, o.width);
+  return fit(`${left} ${tabsTiny}`, o.width);
 }
 
 /** Key hints for the bottom line, most useful first. */
 export function keyHints(view: ViewName, width: number, playing: boolean): string {
   const common = ['←→ 1°', '[ ] 10°', 'n event', `space ${playing ? 'pause' : 'play'}`, 'tab view', '+/- rpm'];
   const byView: Record<ViewName, string[]> = {
-    valve: ['z zoom', 'p pin', 'u units'],
+    valve: ['z zoom', 'c chart', 'p pin', 'u units'],
     runner: ['z zoom', 'u units'],
     sweep: ['s sweep', 'x stop', 'p pin', 'u units'],
     case: ['↑↓ choose', 'enter type', ', . step', 'w save', 'r report'],
@@ -122,6 +128,9 @@ export function helpLines(width: number, rows: number): string[] {
   for (let k = 0; k < n; k++) body.push(fit(`${left[k] ?? ''}  ${right[k] ?? ''}`, w));
   const leave = HELP_LEAVE.map((e) => `${e.keys.replace(/\s+/g, ' or ')}: ${e.what}`).join(' · ');
   const title = firstFit([`Keys of the terminal view — ${leave}`, `Keys — ${leave}`, leave], w);
-  const safety = wrapWords(`Safety: ${SAFETY}`, w, Math.max(2, rows - body.length - 2));
-  return padLines([title, ...body, '', ...safety], rows, w);
+  // the blank line before the caution goes first when rows are short: the caution is never cut for it
+  const whole = wrapWords(`Safety: ${SAFETY}`, w, 100).length;
+  const gap = rows - body.length - 1 - whole >= 1 ? [''] : [];
+  const safety = wrapWords(`Safety: ${SAFETY}`, w, Math.max(2, rows - body.length - 1 - gap.length));
+  return padLines([title, ...body, ...gap, ...safety], rows, w);
 }

@@ -7,6 +7,7 @@
  */
 import type { Action, UiState } from './state.js';
 import { RPM_STEP, VIEWS, reduce } from './state.js';
+import { lineOpOfKey } from './line-edit.js';
 
 /** The subset of Ink's `Key` this module reads. */
 export interface KeyInfo {
@@ -17,6 +18,7 @@ export interface KeyInfo {
   pageUp?: boolean;
   pageDown?: boolean;
   home?: boolean;
+  end?: boolean;
   return?: boolean;
   escape?: boolean;
   ctrl?: boolean;
@@ -52,17 +54,16 @@ export const HELP: readonly HelpGroup[] = [
       { keys: '[ ]  shift+←→', what: 'ten degrees' },
       { keys: 'n  N', what: 'next / prev event' },
       { keys: 'home', what: 'back to 0° (TDC)' },
-      { keys: 'space', what: 'play / pause' },
-      { keys: '< >', what: 'play slower/faster' },
+      { keys: 'space  < >', what: 'play, slower/faster' },
       { keys: 'z  Z', what: 'zoom in / out' },
     ],
   },
   {
     title: 'Compare and learn',
     entries: [
-      { keys: 'p', what: 'pin as baseline' },
-      { keys: 't', what: 'teaching line' },
-      { keys: 'm', what: 'measured data on/off' },
+      { keys: 'p  b  P', what: `pin/compare/clear` },
+      { keys: 'c (Valve)', what: 'chart to enlarge' },
+      { keys: 't  m', what: 'teaching / measured' },
       { keys: 'u  ? g', what: 'units / glossary' },
     ],
   },
@@ -79,10 +80,11 @@ export const HELP: readonly HelpGroup[] = [
   {
     title: 'Case view',
     entries: [
-      { keys: '↑ ↓', what: 'choose a value' },
-      { keys: 'enter', what: 'type it, enter runs' },
+      { keys: '↑ ↓  enter', what: 'choose, type a value' },
       { keys: ',  .', what: 'step down / up' },
+      { keys: 'ctrl+z', what: 'undo the last edit' },
       { keys: 'w  r', what: 'save case / report' },
+      { keys: 'ctrl+a e u k w', what: 'edit a field' },
     ],
   },
 ];
@@ -106,7 +108,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     if (s.save.stage !== 'typing') return undefined;
     if (key.escape) return { type: 'cancel' };
     if (key.return) return { type: 'confirm', yes: true };
-    if (key.backspace || key.delete) return { type: 'backspace' };
+    const op = lineOpOfKey(input, key);
+    if (op) return { type: 'lineOp', op };
     if (input && !key.ctrl && !key.meta && isPrintable(input)) return { type: 'type', text: input };
     return undefined;
   }
@@ -115,9 +118,10 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
   if (s.editing !== undefined) {
     if (key.escape) return { type: 'cancel' };
     if (key.return) return { type: 'commitEdit' };
-    if (key.backspace || key.delete) return { type: 'backspace' };
-    // any printable text is shown as typed; commitEdit says when it is not a plain number
-    if (input && !/[\x00-\x1f\x7f]/.test(input)) return { type: 'type', text: input };
+    const op = lineOpOfKey(input, key);
+    if (op) return { type: 'lineOp', op };
+    // any printable text is shown as typed (not a ctrl key); commitEdit says when it is not a plain number
+    if (input && !key.ctrl && !key.meta && !/[\x00-\x1f\x7f]/.test(input)) return { type: 'type', text: input };
     return undefined;
   }
 
@@ -132,6 +136,8 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
     return undefined;
   }
 
+  if (key.ctrl && input === 'z') return { type: 'undo' };
+  if (key.ctrl) return undefined;
   if (key.tab) return { type: 'nextView', dir: key.shift ? -1 : 1 };
   if (key.leftArrow) return { type: 'step', by: key.shift || key.meta ? -10 : -1 };
   if (key.rightArrow) return { type: 'step', by: key.shift || key.meta ? 10 : 1 };
@@ -193,6 +199,12 @@ export function keyToAction(input: string, key: KeyInfo, s: UiState): Action | u
       return { type: 'zoom', dir: -1 };
     case 'p':
       return { type: 'pinBaseline' };
+    case 'P':
+      return { type: 'clearPins' };
+    case 'b':
+      return { type: 'cycleBaseline' };
+    case 'c':
+      return { type: 'cycleChart' };
     case 's':
       return { type: 'showView', view: 'sweep' };
     case 'w':

@@ -2,7 +2,7 @@
  * Colours of the terminal view, by character class, so the text alone reads
  * the same without colour. NO_COLOR (any non-empty value) turns colour off.
  */
-import { GLYPH } from './chart.js';
+import { GLYPH, SPARK } from './chart.js';
 import { ABOVE, BELOW } from './space-time.js';
 
 export type Palette = Readonly<Record<string, string>>;
@@ -30,6 +30,8 @@ export const CHART_PALETTE: Palette = {
   '▲': 'yellow',
   '▼': 'yellow',
   '×': 'red',
+  // the one-line strips of the present result
+  ...Object.fromEntries(SPARK.map((c) => [c, 'cyan'])),
 };
 
 /** The space–time map: warm for compression, cool for expansion. */

@@ -11,7 +11,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import { constants } from 'node:fs';
-import { access, link, open, readFile, rename, unlink } from 'node:fs/promises';
+import { access, link, open, rename, unlink } from 'node:fs/promises';
 import { inspectTarget } from '../case/target.js';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import YAML from 'yaml';
@@ -80,20 +80,20 @@ export async function suggestSavePath(
 }
 
 /**
- * Where to offer saving an edited case: beside it, except for the cases
- * bundled with tractwave (a cases/ folder next to its package.json), which
- * stay as shipped; those are offered in the working directory instead.
+ * Where to offer saving an edited case: beside it, where a tuner looks for
+ * it (a bundled case in the checkout too: the copy gets a new name, the
+ * shipped file is never replaced, and the copy says on its first line that
+ * tractwave saved it). Only a case inside an installed package (a
+ * node_modules folder) is offered in the working directory instead.
  */
 export async function saveDirFor(caseFile: string, cwd: string = process.cwd()): Promise<string> {
   const dir = dirname(resolve(caseFile));
-  try {
-    const pkg = JSON.parse(await readFile(join(dir, '..', 'package.json'), 'utf8')) as { name?: unknown };
-    if (basename(dir) === 'cases' && pkg.name === 'tractwave') return cwd;
-  } catch {
-    // no package.json beside: a user's own folder
-  }
+  if (dir.split(/[\\/]/).includes('node_modules')) return cwd;
   return dir;
 }
+
+/** the first line of a case file tractwave saved (editedCaseText) */
+export const SAVED_MARK = '# Saved by tractwave from ';
 
 /** Write `text` to `target` atomically; refuse an existing target unless `overwrite`. */
 export async function writeFileAtomic(target: string, text: string, overwrite: boolean): Promise<void> {

@@ -5,7 +5,8 @@
  * reports back with actions such as `pointDone`.
  */
 import type { PointResult } from '../core/model.js';
-import { FIELDS, type FieldDef, fieldByPath, overrideText, parseTyped, roundTo } from './fields.js';
+import { FIELDS, type FieldDef, fieldByPath, formatField, overrideText, parseTyped, roundTo } from './fields.js';
+import { applyLineOp, insertText, type LineOp } from './line-edit.js';
 import { mod } from './chart.js';
 import { RPM_LIMITS } from '../case/schema.js';
 import type { UnitSystem } from '../present/units.js';
@@ -18,6 +19,15 @@ export const VIEW_TITLES: Record<ViewName, string> = {
   sweep: 'Sweep',
   case: 'Case',
 };
+
+/** The Valve view's charts; one is drawn large, the others as one-line strips (key c cycles). */
+export type ValveChart = 'pressure' | 'flow' | 'mass';
+export const VALVE_CHARTS: readonly ValveChart[] = ['pressure', 'flow', 'mass'];
+
+/** the most results kept pinned as baselines (key p) */
+export const MAX_PINS = 3;
+/** how many edits ctrl+z can take back */
+export const MAX_UNDO = 50;
 
 /** Crank windows the zoom key cycles through [deg]. */
 export const ZOOMS = [720, 360, 180, 90] as const;
@@ -71,8 +81,16 @@ export interface Edit {
   value: string;
 }
 
+/** the case's edits and panel values at one moment (for undo) */
+export interface Snapshot {
+  edits: Edit[];
+  values: Record<string, number>;
+}
+
 export interface UiState {
   view: ViewName;
+  /** the Valve view's large chart */
+  bigChart: ValveChart;
   /** cursor crank angle [deg, 0..719] */
   crank: number;
   playing: boolean;
@@ -106,12 +124,23 @@ export interface UiState {
   selected: number;
   /** text being typed into the selected field, if editing */
   editing?: string | undefined;
+  /** the cursor in the text being typed (a value or a file name) */
+  cursor: number;
+  /** the states before each edit, oldest first (ctrl+z goes back one) */
+  history: Snapshot[];
+  /** the field values of the case as loaded from its file */
+  loadedValues: Record<string, number>;
 
   /** the run the top component should be doing (id changes → run) */
   request: { id: number; edits: Edit[]; label: string };
   running: boolean;
   point?: PointShown | undefined;
+  /** the result before the present one */
   baseline?: PointShown | undefined;
+  /** results pinned with p, oldest first (at most MAX_PINS) */
+  pins: PointShown[];
+  /** which baseline the view compares with: 0 the previous result, k the k-th pin (key b) */
+  compare: number;
   runError?: string | undefined;
 
   sweepPlan: { rpms: number[]; band: { from: number; to: number } };
@@ -126,6 +155,8 @@ export interface UiState {
   save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; overwrite: boolean; kind: 'case' | 'report' } | undefined;
   suggestedSavePath: string;
   suggestedReportPath: string;
+  /** the file the edited case was last saved to, and the edits it holds */
+  savedAs?: { path: string; edits: Edit[] } | undefined;
   message?: { text: string; tone: 'info' | 'error' } | undefined;
 }
 
@@ -149,6 +180,11 @@ export type Action =
   | { type: 'zoom'; dir: 1 | -1 }
   | { type: 'pipe'; by: number }
   | { type: 'pinBaseline' }
+  | { type: 'cycleBaseline' }
+  | { type: 'clearPins' }
+  | { type: 'cycleChart' }
+  | { type: 'undo' }
+  | { type: 'lineOp'; op: LineOp }
   | { type: 'quit' }
   | { type: 'select'; by: number }
   | { type: 'beginEdit' }
@@ -192,6 +228,7 @@ export function initialState(o: InitOptions): UiState {
   const fields = (o.fields ?? FIELDS).filter((f) => o.values[f.path] !== undefined);
   return {
     view: 'valve',
+    bigChart: 'pressure',
     crank: 0,
     playing: false,
     rateIndex: 2,
@@ -211,7 +248,12 @@ export function initialState(o: InitOptions): UiState {
     goodValues: { ...o.values },
     fields,
     selected: 0,
-    request: { id: 1, edits: [], label: 'as loaded' },
+    cursor: 0,
+    history: [],
+    loadedValues: { ...o.values },
+    pins: [],
+    compare: 0,
+    request: { id: 1, edits: [], label: AS_LOADED },
     running: true,
     sweepPlan: o.sweepPlan,
     sweepRequest: 0,
@@ -259,6 +301,9 @@ export function nextEventAngle(events: readonly { at: number }[], crank: number,
   return best;
 }
 
+/** the words for the case as its file has it, no edits */
+export const AS_LOADED = 'as in the case file';
+
 function withEdit(edits: readonly Edit[], edit: Edit): Edit[] {
   return [...edits.filter((e) => e.path !== edit.path), edit];
 }
@@ -270,26 +315,91 @@ function describeEdit(field: FieldDef, value: number): string {
 /** Change one field (display units) and ask for a re-run. */
 function applyValue(s: UiState, field: FieldDef, value: number): UiState {
   const edits = withEdit(s.edits, { path: field.path, value: overrideText(field, value) });
-  const changed: UiState = {
-    ...s,
-    edits,
-    values: { ...s.values, [field.path]: value },
+  const history = [...s.history, { edits: s.edits, values: s.values }].slice(-MAX_UNDO);
+  return afterChange(s, { ...s, history, edits, values: { ...s.values, [field.path]: value } }, describeEdit(field, value));
+}
+
+/** Run the changed design; a design change (speed aside) re-runs a sweep that was run. */
+function afterChange(before: UiState, changed: UiState, label: string): UiState {
+  const next: UiState = {
+    ...changed,
     editing: undefined,
-    request: { id: s.request.id + 1, edits, label: describeEdit(field, value) },
+    request: { id: before.request.id + 1, edits: changed.edits, label },
     running: true,
     runError: undefined,
     message: undefined,
   };
   // a design change makes the sweep curve out of date: keep it as the
   // baseline and run the new curve in the background (speed changes do not)
-  if (field.path !== 'rpm' && s.sweep && s.sweepStatus !== 'idle') return startSweep(changed);
-  return changed;
+  if (designKey(before.edits) !== designKey(changed.edits) && before.sweep && before.sweepStatus !== 'idle') return startSweep(next);
+  return next;
+}
+
+/** the design part of some edits (the speed aside), as one comparable string */
+function designKey(edits: readonly Edit[]): string {
+  return JSON.stringify(edits.filter((e) => e.path !== 'rpm').sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0)));
+}
+
+/** Take back the last edit (ctrl+z): the edits and values before it, re-run. */
+function undo(s: UiState): UiState {
+  const history = [...s.history];
+  const key = JSON.stringify(s.edits);
+  let back: Snapshot | undefined;
+  // skip states equal to the present one (an edit refused as bad input was already put back)
+  while (history.length > 0) {
+    const top = history.pop() as Snapshot;
+    if (JSON.stringify(top.edits) !== key) {
+      back = top;
+      break;
+    }
+  }
+  if (!back) return { ...s, history: [], message: { text: 'Nothing to undo: this is the case as loaded or as first changed.', tone: 'info' } };
+  const undone = whatDiffers(s.fields, s.values, back.values);
+  const changed = afterChange(s, { ...s, history, edits: back.edits, values: { ...back.values } }, `undo (${undone})`);
+  return { ...changed, message: { text: `Undone: back to ${undone}${history.length > 0 ? ` (${history.length} more ctrl+z)` : ''}.`, tone: 'info' } };
+}
+
+/**
+ * What `was` differs in from `now`, in the panel's words ("runner length
+ * 600 mm, engine speed 5000 rpm"); the same design when nothing differs.
+ */
+export function whatDiffers(fields: readonly FieldDef[], now: Readonly<Record<string, number>>, was: Readonly<Record<string, number>> | undefined, max = 3): string {
+  if (!was) return 'the same design';
+  const parts: string[] = [];
+  for (const f of fields) {
+    const a = was[f.path];
+    const b = now[f.path];
+    if (a === undefined || b === undefined || formatField(f, a) === formatField(f, b)) continue;
+    parts.push(`${f.label.toLowerCase()} ${formatField(f, a)} ${f.unit}`);
+  }
+  if (parts.length === 0) return 'the same design';
+  return parts.length > max ? `${parts.slice(0, max).join(', ')} (+${parts.length - max} more)` : parts.join(', ');
+}
+
+/** The baseline the view compares with: the previous result, or the pin chosen with b. */
+export function shownBaseline(s: UiState): PointShown | undefined {
+  return s.compare > 0 ? (s.pins[s.compare - 1] ?? s.baseline) : s.baseline;
+}
+
+/** The name of the baseline compared with: "previous result" or "pin B". */
+export function baselineName(s: UiState): string {
+  return s.compare > 0 && s.pins[s.compare - 1] ? `pin ${pinLetter(s.compare - 1)}` : 'previous result';
+}
+
+export function pinLetter(i: number): string {
+  return String.fromCharCode(65 + i);
+}
+
+/** The label of a baseline against the present design: its name and what differed. */
+export function baselineLabel(s: UiState, b: PointShown | undefined = shownBaseline(s), name = baselineName(s)): string {
+  if (!b) return '';
+  return `${name}: ${whatDiffers(s.fields, s.values, b.values)}`;
 }
 
 /** The design a sweep curve belongs to: its changes from the case file, speed aside. */
 export function designLabel(s: UiState): string {
   const design = s.edits.filter((e) => e.path !== 'rpm');
-  if (design.length === 0) return 'as loaded';
+  if (design.length === 0) return AS_LOADED;
   const last = design[design.length - 1] as Edit;
   const f = fieldByPath(last.path, s.fields);
   const v = s.values[last.path];
@@ -382,9 +492,44 @@ export function reduce(s: UiState, a: Action): UiState {
       if (count <= 1) return { ...s, pipeIndex: 0, message: { text: 'This case has one pipe, the runner.', tone: 'info' } };
       return { ...s, pipeIndex: mod(s.pipeIndex + a.by, count), message: undefined };
     }
-    case 'pinBaseline':
+    case 'pinBaseline': {
       if (!s.point) return s;
-      return { ...s, baseline: s.point, message: { text: 'Pinned this result as the baseline.', tone: 'info' } };
+      const dropped = s.pins.length >= MAX_PINS;
+      const pins = [...s.pins, s.point].slice(-MAX_PINS);
+      const letter = pinLetter(pins.length - 1);
+      return {
+        ...s,
+        pins,
+        compare: pins.length,
+        message: {
+          text: `Pinned this result as ${letter} (${pins.length} of ${MAX_PINS}${dropped ? ', the oldest dropped' : ''}); b picks the baseline to compare, P clears the pins.`,
+          tone: 'info',
+        },
+      };
+    }
+    case 'cycleBaseline': {
+      if (s.pins.length === 0) return { ...s, compare: 0, message: { text: 'Comparing with the previous result; p pins this one to keep it.', tone: 'info' } };
+      const compare = mod(s.compare + 1, s.pins.length + 1);
+      const next = { ...s, compare };
+      return { ...next, message: { text: `Comparing with ${baselineLabel(next) || baselineName(next)}.`, tone: 'info' } };
+    }
+    case 'clearPins':
+      return { ...s, pins: [], compare: 0, message: { text: s.pins.length > 0 ? 'Pins cleared; comparing with the previous result.' : 'No pins to clear.', tone: 'info' } };
+    case 'cycleChart': {
+      const next = VALVE_CHARTS[mod(VALVE_CHARTS.indexOf(s.bigChart) + 1, VALVE_CHARTS.length)] as ValveChart;
+      return { ...s, bigChart: next };
+    }
+    case 'undo':
+      return undo(s);
+    case 'lineOp': {
+      if (s.save && s.save.stage === 'typing') {
+        const l = applyLineOp({ text: s.save.path, cursor: s.cursor }, a.op);
+        return { ...s, save: { ...s.save, path: l.text }, cursor: l.cursor };
+      }
+      if (s.editing === undefined) return s;
+      const l = applyLineOp({ text: s.editing, cursor: s.cursor }, a.op);
+      return { ...s, editing: l.text, cursor: l.cursor };
+    }
     case 'quit':
       return { ...s, quit: true, playing: false };
 
@@ -395,23 +540,19 @@ export function reduce(s: UiState, a: Action): UiState {
     case 'beginEdit': {
       const f = s.fields[s.selected];
       if (!f) return s;
-      return { ...s, editing: '', message: undefined };
+      return { ...s, editing: '', cursor: 0, message: undefined };
     }
     case 'type': {
       if (s.save && s.save.stage === 'typing') {
-        return { ...s, save: { ...s.save, path: s.save.path + a.text } };
+        const l = insertText({ text: s.save.path, cursor: s.cursor }, a.text);
+        return { ...s, save: { ...s.save, path: l.text }, cursor: l.cursor };
       }
       if (s.editing === undefined) return s;
-      const text = (s.editing + a.text).slice(0, 16);
-      return { ...s, editing: text };
+      const l = insertText({ text: s.editing, cursor: s.cursor }, a.text, 16);
+      return { ...s, editing: l.text, cursor: l.cursor };
     }
-    case 'backspace': {
-      if (s.save && s.save.stage === 'typing') {
-        return { ...s, save: { ...s.save, path: s.save.path.slice(0, -1) } };
-      }
-      if (s.editing === undefined) return s;
-      return { ...s, editing: s.editing.slice(0, -1) };
-    }
+    case 'backspace':
+      return reduce(s, { type: 'lineOp', op: 'backspace' });
     case 'commitEdit': {
       const f = s.fields[s.selected];
       if (!f || s.editing === undefined) return s;
@@ -453,9 +594,11 @@ export function reduce(s: UiState, a: Action): UiState {
     case 'pointFailed': {
       if (a.id !== s.request.id) return s;
       if (a.badInput) {
-        // put the bad value back, keep the last good result on screen
+        // put the bad value back, keep the last good result on screen (and drop its undo step)
         return {
           ...s,
+          // (an undo took its step already)
+          history: s.request.label.startsWith('undo') ? s.history : s.history.slice(0, -1),
           running: false,
           edits: s.goodEdits,
           values: { ...s.goodValues },
@@ -499,6 +642,7 @@ export function reduce(s: UiState, a: Action): UiState {
         help: false,
         editing: undefined,
         save: { stage: 'typing', path: s.suggestedSavePath, overwrite: false, kind: 'case' },
+        cursor: s.suggestedSavePath.length,
         message: undefined,
       };
     case 'beginReport':
@@ -510,6 +654,7 @@ export function reduce(s: UiState, a: Action): UiState {
         editing: undefined,
         playing: false,
         save: { stage: 'typing', path: s.suggestedReportPath, overwrite: false, kind: 'report' },
+        cursor: s.suggestedReportPath.length,
         message: undefined,
       };
     case 'saveChecked':
@@ -523,7 +668,7 @@ export function reduce(s: UiState, a: Action): UiState {
         return { ...s, save: { ...s.save, path: s.save.path.trim(), stage: 'checking' } };
       }
       if (s.save.stage !== 'confirm') return s;
-      if (!a.yes) return { ...s, save: { ...s.save, stage: 'typing' }, message: { text: 'Choose another name.', tone: 'info' } };
+      if (!a.yes) return { ...s, save: { ...s.save, stage: 'typing' }, cursor: s.save.path.length, message: { text: 'Choose another name.', tone: 'info' } };
       return { ...s, save: { ...s.save, stage: 'saving', overwrite: true } };
     case 'saved':
       if (s.save?.kind === 'report')
@@ -532,6 +677,7 @@ export function reduce(s: UiState, a: Action): UiState {
         ...s,
         save: undefined,
         suggestedSavePath: a.next,
+        savedAs: { path: a.path, edits: s.edits },
         message: { text: `Saved to ${a.path}`, tone: 'info' },
       };
     case 'saveFailed':
@@ -545,8 +691,8 @@ export function reduce(s: UiState, a: Action): UiState {
   }
 }
 
-/** Whether a sweep exists that was run before the latest edits. */
+/** Whether a sweep exists that was run for another design than the present one (the speed of the point aside: a sweep covers every speed). */
 export function sweepIsStale(s: UiState): boolean {
   if (!s.sweep || !s.sweepEdits) return false;
-  return JSON.stringify(s.sweepEdits) !== JSON.stringify(s.edits);
+  return designKey(s.sweepEdits) !== designKey(s.edits);
 }

@@ -156,7 +156,7 @@ export function sweepScreen(i: SweepScreenInput): string[] {
   const chart = plotBins(
     series,
     bins,
-    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => fixedNum(v * 100, 1) },
+    { width: w, height, gutter: g, yMin: range.min, yMax: range.max, formatY: (v) => fixedNum(v * 100, 1), labelEvery: height >= 16 ? 4 : 3 },
     { cursorColumn, shadeColumns: shade },
   );
   // unconverged points as ×

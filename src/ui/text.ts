@@ -12,7 +12,7 @@ export function etaPct(v: number): string {
   return Number.isFinite(v) ? percent(v, 1) : '…';
 }
 
-/** a change of ηv in percentage points, "+3.9 points" (not a relative per cent) */
+/** a change of ηv in percentage points, "+3.9 points" (not a relative per cent); the difference of the two values as etaPct shows them */
 export function etaPoints(now: number, before: number): string {
   return points(now, before, 1);
 }

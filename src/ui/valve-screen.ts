@@ -4,7 +4,7 @@
  * crank axis with TDC/BDC and the valve events, the cursor, the values at the
  * cursor in each chart's title, and the pulse verdict. Pure.
  */
-import { crankAxis, crankChart, cycleMarks, valueRange, GLYPH, type ChartSeries } from './chart.js';
+import { crankAxis, crankChart, crankSparkline, cycleMarks, valueRange, GLYPH, type ChartSeries } from './chart.js';
 import { firstFit, fit, wrapWords } from './text.js';
 import { fixed as fixedNum } from '../present/number.js';
 import { METRIC, type Units } from '../present/units.js';
@@ -42,6 +42,10 @@ export interface ValveScreenInput {
   measured?: ValveMeasured | undefined;
   /** display units (the u key); metric when not given */
   units?: Units | undefined;
+  /** mass delivered through the valve since IVO at each degree [kg] (analysis/filling.ts), of the result and of the baseline */
+  delivered?: { now: ArrayLike<number>; before?: ArrayLike<number> | undefined } | undefined;
+  /** the chart drawn large (key c); the others are one-line strips when rows are short (default pressure) */
+  large?: 'pressure' | 'flow' | 'mass' | undefined;
 }
 
 export interface ValveMeasured {
@@ -55,12 +59,28 @@ export interface ValveMeasured {
 
 export const VALVE_GUTTER = 7;
 
-/** Chart heights for the rows available to the three charts. */
-export function valveChartRows(chartRows: number): [number, number, number] {
-  const p = Math.max(2, Math.round(chartRows * 0.55));
-  const f = Math.max(1, Math.round(chartRows * 0.27));
-  const m = Math.max(1, chartRows - p - f);
-  return [p, f, m];
+/** below this many chart rows the small charts are one-line strips */
+export const STRIP_BELOW = 20;
+
+/**
+ * Chart heights (pressure, flow, mass) for the rows available to the three
+ * charts: with few rows (an 80×24 window) the large one gets all but one row
+ * for each of the others, drawn as one-line strips; with room, the large one
+ * half and the others a quarter each.
+ */
+export function valveChartRows(chartRows: number, large: 'pressure' | 'flow' | 'mass' = 'pressure'): [number, number, number] {
+  const order = ['pressure', 'flow', 'mass'] as const;
+  const k = order.indexOf(large);
+  const out: [number, number, number] = [1, 1, 1];
+  if (chartRows < STRIP_BELOW) {
+    out[k] = Math.max(2, chartRows - 2);
+    return out;
+  }
+  const big = Math.round(chartRows * 0.5);
+  const small = Math.floor((chartRows - big) / 2);
+  out[k] = chartRows - 2 * small;
+  for (let j = 0; j < 3; j++) if (j !== k) out[j] = small;
+  return out;
 }
 
 function at(a: ArrayLike<number>, crank: number): number {
@@ -91,7 +111,7 @@ export function valveScreen(i: ValveScreenInput): string[] {
   const liftLog = i.measured?.lift;
   const measuredRows = i.measured?.verdict ? 1 : 0;
   const fixed = 3 /* titles */ + 2 /* axis */ + 2 /* verdict */ + noteRows + measuredRows;
-  const [hp, hf, hm] = valveChartRows(Math.max(4, i.rows - fixed));
+  const [hp, hf, hm] = valveChartRows(Math.max(4, i.rows - fixed), i.large ?? 'pressure');
   const g = VALVE_GUTTER;
   const series = (pick: (t: ValveTraces) => ArrayLike<number>, scale: number): ChartSeries[] => {
     const s: ChartSeries[] = [];
@@ -100,6 +120,11 @@ export function valveScreen(i: ValveScreenInput): string[] {
     return s;
   };
   const common = { width: w, gutter: g, from: i.from, span: i.span, cursor: i.crank };
+  /** a chart of height 1 is a one-line strip of the present result */
+  const draw = (s: ChartSeries[], height: number, o: { yMin: number; yMax: number; formatY: (v: number) => string; reference?: number }): string[] =>
+    height <= 1
+      ? [crankSparkline((s.find((x) => x.style === 'line') ?? s[0])?.values ?? [], { ...common, yMin: o.yMin, yMax: o.yMax, formatY: o.formatY })]
+      : crankChart(s, { ...common, height, ...o });
 
   // pressure [kPa]: at the valve, or with a measured trace at its sensor, the model's and the measured
   const atSensor = trace !== undefined && trace.sensorAt > 0;
@@ -110,28 +135,21 @@ export function valveScreen(i: ValveScreenInput): string[] {
     pS.map((s) => s.values),
     { include: [i.reference * kP], minSpan: 2 * kP * 1000, pad: 0.04 },
   );
-  const pLines = crankChart(pS, {
-    ...common,
-    height: hp,
-    yMin: pR.min,
-    yMax: pR.max,
-    formatY: label1,
-    reference: i.reference * kP,
-  });
+  const pLines = draw(pS, hp, { yMin: pR.min, yMax: pR.max, formatY: label1, reference: i.reference * kP });
   // flow [g/s]
   const fS = series((t) => t.valveFlow, kF);
   const fR = valueRange(
     fS.map((s) => s.values),
     { include: [0], minSpan: kF * 1e-3, pad: 0.04 },
   );
-  const fLines = crankChart(fS, { ...common, height: hf, yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
+  const fLines = draw(fS, hf, { yMin: fR.min, yMax: fR.max, formatY: label1, reference: 0 });
   // mass [mg], or with a lift log the valve lift [mm], the model's and the logged
   const mS = liftLog ? [{ values: scaled(i.now.lift, kL), style: 'line' as const }, { values: scaled(liftLog, kL), style: 'measured' as const }] : series((t) => t.cylinderMass, kM);
   const mR = valueRange(
     mS.map((s) => s.values),
     { minSpan: liftLog ? kL * 1e-3 : kM * 1e-6 },
   );
-  const mLines = crankChart(mS, { ...common, height: hm, yMin: mR.min, yMax: mR.max, formatY: label1 });
+  const mLines = draw(mS, hm, { yMin: mR.min, yMax: mR.max, formatY: label1 });
 
   const c = i.crank;
   const p = atSensor ? at(trace.model, c) : at(i.now.valvePressure, c);
@@ -173,7 +191,7 @@ export function valveScreen(i: ValveScreenInput): string[] {
   const loggedText = Number.isFinite(logged) ? u.text('shortLength', logged) : 'off the log';
   const mTitle = liftLog
     ? titleWithLegend([`Valve lift  ${u.text('shortLength', lift)} (lift log ${loggedText})`, `Lift ${u.text('shortLength', lift)} (log ${loggedText})`], `${GLYPH.flat} model ${GLYPH.measured} lift log`, w)
-    : firstFit([`Gas in the cylinder  ${u.text('mass', mass)}`, `Cylinder ${u.text('mass', mass)}`], w);
+    : firstFit(massTitles(mass, i.delivered, c, u), w);
   const axis = crankAxis(cycleMarks(i.events), common);
   const verdict = i.verdict
     ? wrapWords(`At IVC: ${restateGauge(i.verdict, u)}.`, w, 2)
@@ -184,6 +202,18 @@ export function valveScreen(i: ValveScreenInput): string[] {
 
   const lines = [pTitle, ...pLines, fTitle, ...fLines, mTitle, ...mLines, ...axis, ...verdict];
   return padLines(lines, i.rows, w);
+}
+
+/** The cylinder-mass chart's titles, longest first: with the mass delivered since IVO (and the baseline's) when known. */
+function massTitles(mass: number, delivered: ValveScreenInput['delivered'], c: number, u: Units): string[] {
+  const d = delivered ? at(delivered.now, c) : Number.NaN;
+  const b = delivered?.before ? at(delivered.before, c) : Number.NaN;
+  const m = (v: number) => u.text('mass', v);
+  const mv = (v: number) => u.value('mass', v);
+  const plain = [`Gas in the cylinder  ${m(mass)}`, `Cylinder ${m(mass)}`];
+  if (!Number.isFinite(d)) return plain;
+  const since = `delivered since IVO ${m(d)}${Number.isFinite(b) ? ` (baseline ${mv(b)})` : ''}`;
+  return [`Gas in the cylinder  ${m(mass)}   ·   ${since}`, `Cylinder ${m(mass)} · ${since}`, `Cylinder ${m(mass)} · since IVO ${mv(d)}${Number.isFinite(b) ? ` (base ${mv(b)})` : ''}`, ...plain];
 }
 
 function scaled(a: ArrayLike<number>, k: number): Float64Array {

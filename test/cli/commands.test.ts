@@ -3,7 +3,7 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import YAML from 'yaml';
-import { cli } from './helpers.js';
+import { cli, ROOT } from './helpers.js';
 import { baseCase } from '../case/fixture.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'tractwave-cli-'));
@@ -157,6 +157,35 @@ describe('pipe: Sod shock tube through the command (Toro 2009, Table 4.3)', asyn
       expect(snap.velocity[i] / (0.92745 * Math.sqrt(1e5 / 1.0))).toBeLessThan(1.02);
     }
   });
+  it('text output: the exact solution beside the shock tube while no wave has reached an end; p* = 30.31 kPa (Toro 2009, Table 4.3: 0.30313 p_L)', async () => {
+    const t = await cli(['pipe', 'cases/pipe-sod.yaml']);
+    expect(t.code).toBe(0);
+    const blocks = t.out.split(/\n(?=t = )/).slice(1);
+    expect(blocks).toHaveLength(4);
+    // t = 0: the initial split, no exact column; 0.3 and 0.632 ms: exact columns; 1.2 ms: the shock has reflected
+    expect(blocks.map((b) => /p \[kPa\]\s+exact\s+u \[m\/s\]\s+exact\s+T \[°C\]\s+exact/.test(b))).toEqual([false, true, true, false]);
+    expect(blocks[3]).toContain('a wave has reached an end');
+    const row = blocks[2]!.split('\n').find((l) => l.trimStart().startsWith('0.600')) ?? '';
+    const [, pNum, pExact, uNum, uExact] = row.trim().split(/\s+/).map(Number);
+    expect(pExact).toBeCloseTo(30.31, 2);
+    expect(uExact).toBeCloseTo(293.3, 1); // u* = 0.92745·√(p_L/ρ_L) = 293.3 m/s
+    expect(Math.abs(pNum! / pExact! - 1)).toBeLessThan(0.02);
+    expect(Math.abs(uNum! / uExact! - 1)).toBeLessThan(0.02);
+    expect(t.out).toContain('Toro 2009');
+  });
+  it('text output: --rows, else as many rows as the terminal holds (at least 11), 11 when not a terminal', async () => {
+    const rowsOf = (out: string) => out.split(/\n(?=t = )/)[1]!.split('\n').filter((l) => /^\s+\d+\.\d{3}\s/.test(l)).length;
+    expect(rowsOf((await cli(['pipe', 'cases/pipe-sod.yaml'])).out)).toBe(11);
+    expect(rowsOf((await cli(['pipe', 'cases/pipe-sod.yaml', '--rows', '41'])).out)).toBe(41);
+    const { runCli } = await import('../../src/cli/main.js');
+    const { memoryIo } = await import('../../src/cli/io.js');
+    const io = memoryIo({ cwd: ROOT, stdoutIsTTY: true, stdoutRows: 40 });
+    expect(await runCli(['pipe', 'cases/pipe-sod.yaml'], io)).toBe(0);
+    expect(rowsOf(io.out())).toBe(35);
+    const bad = await cli(['pipe', 'cases/pipe-sod.yaml', '--rows', 'many']);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toContain('--rows');
+  });
   it('text output shows a table per snapshot', async () => {
     const t = await cli(['pipe', 'cases/pipe-pulse.yaml']);
     expect(t.code).toBe(0);
@@ -180,6 +209,17 @@ describe('help', () => {
     expect(r.out.startsWith(`usage: tractwave ${c} `)).toBe(true);
     const viaHelp = await cli(['help', c]);
     expect(viaHelp.out).toBe(r.out);
+  });
+  it('sweep --help names only columns the sweep table shows', async () => {
+    const help = (await cli(['sweep', '--help'])).out;
+    const table = (await cli(['sweep', 'cases/teach-short.yaml', '--rpm', '3000:3000:250'])).out;
+    // the header is two rows (words above, units and the rest of the words below): a column name may span both
+    const lines = table.split('\n');
+    const at = lines.findIndex((l) => /^\s*rpm\s+ηv/.test(l));
+    const header = at > 0 ? `${lines[at - 1]}\n${lines[at]}` : '';
+    const named = [...help.matchAll(/The columns ([^.]*) say/g)].flatMap((m) => [...(m[1] ?? '').matchAll(/'([^']+)'/g)].map((q) => q[1] ?? ''));
+    expect(named.length).toBeGreaterThanOrEqual(2);
+    for (const column of named) for (const word of column.split(/\s+/)) expect(header, `the help names '${column}'`).toContain(word);
   });
   it('--version', async () => {
     const r = await cli(['--version']);

@@ -10,6 +10,8 @@ import { cli, ROOT } from '../cli/helpers.js';
 /** the bundled engine cases (every case in cases/ but the bare-pipe experiments) */
 export const BUNDLED: readonly string[] = readdirSync(join(ROOT, 'cases'))
   .filter((f) => f.endsWith('.yaml') && !f.startsWith('pipe-'))
+  // a copy the terminal view saved beside a bundled case is the user's
+  .filter((f) => !readFileSync(join(ROOT, 'cases', f), 'utf8').startsWith('# Saved by tractwave from '))
   .map((f) => f.replace(/\.yaml$/, ''))
   .sort();
 

@@ -3,12 +3,9 @@
  * a fake engine that answers with SYNTHETIC results (fixtures.ts). These test
  * the screen and the keys, not physics.
  */
-import React from 'react';
 import { afterEach, describe, expect, it } from 'vitest';
-import { cleanup, render } from 'ink-testing-library';
-import { App } from '../../src/ui/app.js';
-import { stripAnsi } from '../../src/ui/text.js';
-import { fakeEngine, fakeSession } from './fixtures.js';
+import { cleanup } from 'ink-testing-library';
+import { startView } from './view-harness.js';
 
 const RIGHT = '\u001b[C';
 const DOWN = '\u001b[B';
@@ -16,44 +13,7 @@ const TAB = '\t';
 const ENTER = '\r';
 const BACKSPACE = '\u007f';
 
-/** how long a condition may take to show before the test fails with what it waited for */
-const WAIT_MS = 5000;
-/** one turn of the event loop: Ink renders after the input handler returns */
-const tick = (ms = 10): Promise<void> => new Promise((r) => setTimeout(r, ms));
-
-/** Poll `cond` until it holds; fail after WAIT_MS with `what()` (and the frame) in the message. */
-async function waitFor(cond: () => boolean, what: () => string): Promise<void> {
-  const t0 = Date.now();
-  while (!cond()) {
-    if (Date.now() - t0 > WAIT_MS) throw new Error(`${what()} (waited ${WAIT_MS / 1000} s)`);
-    await tick();
-  }
-}
-
-function start(size = { columns: 80, rows: 24 }, color = false) {
-  const session = fakeSession();
-  const engine = fakeEngine();
-  const app = render(<App session={session} engine={engine} size={size} color={color} debounceMs={0} />);
-  const frame = (): string => stripAnsi(app.lastFrame() ?? '');
-  /** press keys one by one, each time waiting until the frame shows its effect */
-  const press = async (...keys: string[]): Promise<void> => {
-    for (const k of keys) {
-      const before = frame();
-      app.stdin.write(k);
-      await waitFor(() => frame() !== before, () => `key ${JSON.stringify(k)} changed nothing on the screen; the frame was:\n${before}`);
-    }
-  };
-  /** wait until the frame shows `text` (the first point, a re-run) */
-  const until = async (text: string | RegExp): Promise<void> => {
-    const has = (): boolean => (typeof text === 'string' ? frame().includes(text) : text.test(frame()));
-    await waitFor(has, () => `the frame never showed ${String(text)}; it is:\n${frame()}`);
-  };
-  /** wait until a condition holds */
-  const untilTrue = async (cond: () => boolean, what = 'the condition'): Promise<void> => {
-    await waitFor(cond, () => `${what} never held; the frame is:\n${frame()}`);
-  };
-  return { app, session, engine, frame, press, until, untilTrue };
-}
+const start = startView;
 
 function expectFits(frame: string, columns: number, rows: number): void {
   const lines = frame.split('\n');

@@ -182,14 +182,50 @@ describe('crank chart and axis', () => {
   it('drops the lowest-priority label when two collide, keeping its tick', () => {
     const [ticks, labels] = axisLines(
       [
-        { col: 5, label: 'IVC', priority: 0 },
-        { col: 6, label: 'BDC', priority: 1 },
+        { col: 4, label: 'IVC', priority: 0 },
+        { col: 5, label: 'BDC', priority: 1 },
       ],
-      { width: 12, gutter: 0 },
+      { width: 9, gutter: 0 },
     );
     expect(labels).toContain('IVC');
     expect(labels).not.toContain('BDC');
-    expect(ticks[6]).toBe('┬');
+    expect(ticks[5]).toBe('┬');
+  });
+
+  it('the row the zero line is drawn on is labelled 0.0, even when it is the bottom row (not the range minimum)', () => {
+    // flow −17.8 … 173.9 g/s over 9 rows: 21.3 g/s a row, zero falls in the bottom row
+    const values = new Float64Array(720).map((_, k) => (k < 200 ? 173.9 * Math.sin((Math.PI * k) / 200) : -17.8 * Math.sin((Math.PI * (k - 200)) / 520)));
+    const lines = crankChart([{ values, style: 'line' }], { width: 80, height: 9, gutter: 7, from: 0, span: 720, yMin: -17.8, yMax: 173.9, formatY: (v) => v.toFixed(1), reference: 0 });
+    const zeroRow = lines.findIndex((l) => l.includes(GLYPH.reference));
+    expect(zeroRow).toBe(8);
+    expect(lines[zeroRow]?.slice(0, 7)).toBe('   0.0┤');
+    expect(lines.join('\n')).not.toContain('-17.8');
+    expect(lines[0]?.slice(0, 7)).toBe(' 173.9┤');
+  });
+
+  it('labels rows between the ends when asked (the Sweep chart: more than min and max over many rows)', () => {
+    const bins = Array.from({ length: 10 }, (_, c) => [c]);
+    const lines = plotBins([{ values: new Float64Array(10).fill(0.5), style: 'line' }], bins, { width: 17, height: 12, gutter: 7, yMin: 0, yMax: 1.2, formatY: (v) => v.toFixed(2), labelEvery: 4 });
+    const labelled = lines.map((l) => l.slice(0, 6).trim()).filter((t) => t !== '');
+    // rows 0, 4, 8 and the bottom: 1.20, the middles of rows 4 and 8 (0.75, 0.35), 0.00
+    expect(labelled).toEqual(['1.20', '0.75', '0.35', '0.00']);
+  });
+
+  it('a one-line strip: the eighth block of each column\'s mean between the range ends, the top value in the gutter', async () => {
+    const { crankSparkline, SPARK } = await import('../../src/ui/chart.js');
+    // 8 columns over 720°: column c holds degrees 90c … 90c+89, all of value c
+    const values = new Float64Array(720).map((_, k) => Math.floor(k / 90));
+    const line = crankSparkline(values, { width: 12, gutter: 4, from: 0, span: 720, yMin: 0, yMax: 8, formatY: (v) => v.toFixed(0) });
+    expect(line).toBe(`  8┤${SPARK.join('')}`);
+  });
+
+  it('moves a crowded label further out rather than dropping it: EVC 20° ATDC beside TDC at 80 columns', () => {
+    // 72 columns for 720°: TDC at column 0, EVC at column 2, IVO at column 70
+    const [ticks, labels] = crankAxis(cycleMarks(events), { width: 80, gutter: 8, from: 0, span: 720 });
+    for (const name of ['IVO', 'IVC', 'EVO', 'EVC', 'TDC', 'BDC']) expect(labels).toContain(name);
+    expect([...ticks][8 + 2]).toBe('┬');
+    // within one label's width of its tick
+    expect(labels.indexOf('EVC') - 8 - 2).toBeLessThanOrEqual(4);
   });
 
   it('shows only the marks inside a zoomed window', () => {

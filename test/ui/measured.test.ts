@@ -69,7 +69,7 @@ describe('m turns measured data on and off', () => {
     expect(s1.measured).toBe(false);
     expect(reduce(s1, a!).measured).toBe(true);
     expect(keyToAction('m', {}, { ...s0, view: 'sweep' })).toEqual({ type: 'toggleMeasured' });
-    expect(helpLines(80, 22).join('\n')).toContain('measured data on/off');
+    expect(helpLines(80, 22).join('\n')).toMatch(/t  m +teaching \/ measured/);
   });
 });
 

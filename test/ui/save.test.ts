@@ -4,7 +4,7 @@
  */
 import { mkdtemp, readFile, readdir, rm, writeFile, copyFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadCase } from '../../src/case/index.js';
 import { defaultSweepPlan, fieldValues, openCase, toDisplay } from '../../src/ui/case-session.js';
@@ -155,10 +155,16 @@ describe('case session', () => {
 });
 
 describe('where an edited case is offered', () => {
-  it('the bundled cases stay as shipped: their edits are offered in the working directory', async () => {
-    const { saveDirFor } = await import('../../src/ui/save.js');
+  it('a bundled case in the checkout: beside it, under a new name (the shipped file stays)', async () => {
+    const { saveDirFor, suggestSavePath } = await import('../../src/ui/save.js');
     const bundled = new URL('../../cases/demo.yaml', import.meta.url).pathname;
-    expect(await saveDirFor(bundled, '/somewhere/else')).toBe('/somewhere/else');
+    const dir = await saveDirFor(bundled, '/somewhere/else');
+    expect(dir).toBe(dirname(bundled));
+    expect(await suggestSavePath(bundled, async () => false, dir)).toBe(join(dirname(bundled), 'demo-2.yaml'));
+  });
+  it('a case inside an installed package (node_modules): the working directory', async () => {
+    const { saveDirFor } = await import('../../src/ui/save.js');
+    expect(await saveDirFor('/home/me/shop/node_modules/tractwave/cases/demo.yaml', '/somewhere/else')).toBe('/somewhere/else');
   });
   it("a user's own case: beside it", async () => {
     const { saveDirFor } = await import('../../src/ui/save.js');
@@ -166,15 +172,9 @@ describe('where an edited case is offered', () => {
     expect(await saveDirFor(join(own, 'mine.yaml'), '/somewhere/else')).toBe(own);
     await rm(own, { recursive: true, force: true });
   });
-});
-
-describe('saving never replaces anything but a regular file', () => {
-  it('a device is refused even when replacing is confirmed, and stays a device', async () => {
-    const { saveEditedCase } = await import('../../src/ui/save.js');
-    const { lstatSync } = await import('node:fs');
-    const { fileURLToPath } = await import('node:url');
-    const demo = fileURLToPath(new URL('../../cases/demo.yaml', import.meta.url));
-    await expect(saveEditedCase(demo, [], '/dev/null', { overwrite: true })).rejects.toThrow(/\/dev\/null is a device, not a file/);
-    expect(lstatSync('/dev/null').isCharacterDevice()).toBe(true);
+  it('a saved copy says so on its first line (the bundled-case lists leave such copies out)', async () => {
+    const { editedCaseText, SAVED_MARK } = await import('../../src/ui/save.js');
+    const text = editedCaseText('name: x\nrpm: 6000\n', [{ path: 'rpm', value: '6500' }], 'demo.yaml');
+    expect(text.startsWith(`${SAVED_MARK}demo.yaml`)).toBe(true);
   });
 });

@@ -178,6 +178,16 @@ describe('frame lines', () => {
     expect(h).toContain('6500 rpm');
   });
 
+  it.each([72, 80, 100])('the view tabs keep their digits (the keys 1–4) when the header is short: %i columns, running', (w) => {
+    for (const view of ['valve', 'runner', 'sweep', 'case'] as const) {
+      const h = headerLine({ width: w, name: 'A rather long invented engine name', rpm: 10500, crank: 245, view, running: true });
+      expect([...h]).toHaveLength(w);
+      const k = ['valve', 'runner', 'sweep', 'case'].indexOf(view) + 1;
+      expect(h).toMatch(new RegExp(`\\[${k} [A-Z][a-z]+\\]`));
+      for (const d of [1, 2, 3, 4]) expect(h).toMatch(new RegExp(`(^|[ \\[])${d}( |\\b)`));
+    }
+  });
+
   it.each([72, 80, 120])('the key hints fit %i columns and always offer help and quit', (w) => {
     for (const v of ['valve', 'runner', 'sweep', 'case'] as const) {
       const k = keyHints(v, w, false);
@@ -191,6 +201,9 @@ describe('frame lines', () => {
     [72, 21],
     [80, 23],
     [120, 39],
+    // the rows the view gives the help in a 72×22 and an 80×24 window (rowBudget: all but the header and the two bottom lines)
+    [72, 18],
+    [80, 20],
   ])('help fits %i × %i, lists every key with "quit" and the safety caution', (w, rows) => {
     const lines = helpLines(w, rows);
     widthOk(lines, w, rows);
@@ -199,7 +212,7 @@ describe('frame lines', () => {
     expect(text).toContain('Safety');
     expect(text).toContain('regulations');
     expect(text).not.toContain('…'); // nothing cut
-    for (const k of ['← →', '[ ]', 'space', 'tab', '+ -', 'n  N', 'z  Z', 'p', 't', 'enter', 'w', 's  x', 'ctrl+c']) expect(text).toContain(k);
+    for (const k of ['← →', '[ ]', 'space  < >', 'tab', '+ -', 'n  N', 'z  Z', 'p', 't', 'enter', 'w', 's  x', 'ctrl+c', 'ctrl+z', 'p  b  P', 'c (Valve)', 'ctrl+a e u k w']) expect(text).toContain(k);
   });
 
   it.each([

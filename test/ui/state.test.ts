@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { keyToAction, reduceApp, type KeyInfo } from '../../src/ui/keys.js';
-import { initialState, nextEventAngle, reduce, RATES, type Action, type UiState } from '../../src/ui/state.js';
+import { AS_LOADED, initialState, nextEventAngle, reduce, RATES, sweepIsStale, whatDiffers, type Action, type UiState } from '../../src/ui/state.js';
 import { START_VALUES, syntheticResult } from './fixtures.js';
 
 function fresh(): UiState {
@@ -243,7 +243,7 @@ describe('the sweep', () => {
     expect(s.sweepStatus).toBe('running');
     expect(s.sweepRequest).toBe(id + 1);
     expect(s.sweepBaseline?.eta).toEqual([0.9, 1.0, 0.95]);
-    expect(s.sweepBaseline?.label).toBe('as loaded');
+    expect(s.sweepBaseline?.label).toBe(AS_LOADED);
     expect(s.sweep?.label).toBe('runner length 310 mm');
     expect(s.sweep?.eta).toEqual([null, null, null]);
     // a point from the old sweep is ignored
@@ -344,5 +344,53 @@ describe('typing a value in the case view', () => {
     s = reduce(s, { type: 'pointFailed', id: s.request.id, message: 'numerics.meshSize: must be at most half the runner length', badInput: true });
     expect(s.message?.text).toMatch(/refused: numerics\.meshSize/);
     expect(s.message?.text.startsWith(s.request.label ?? 'x')).toBe(true);
+  });
+});
+
+describe('first-hour rough edges (issue 12)', () => {
+  it('the difference in points is the difference of the two values shown', async () => {
+    const { etaPct, etaPoints } = await import('../../src/ui/text.js');
+    // 109.436 % and 107.251 % show as 109.4 and 107.3: the difference shown is 2.1, not 2.2
+    expect(etaPct(1.09436)).toBe('109.4 %');
+    expect(etaPct(1.07251)).toBe('107.3 %');
+    expect(etaPoints(1.09436, 1.07251)).toBe('+2.1 points');
+    expect(etaPoints(1.07251, 1.09436)).toBe('−2.1 points');
+  });
+
+  it('a speed change leaves the sweep current (a sweep covers every speed); a design change runs it again', () => {
+    let s = reduce(withPoint(), { type: 'sweepStart' });
+    const id = s.sweepRequest;
+    s = reduce(s, { type: 'sweepDone', id });
+    s = press(s, '+');
+    expect(sweepIsStale(s)).toBe(false);
+    expect(s.sweepRequest).toBe(id);
+    s = press(press(reduce(s, { type: 'showView', view: 'case' }), '', { downArrow: true }), '.');
+    expect(s.sweepRequest).toBe(id + 1);
+    expect(sweepIsStale(s)).toBe(false);
+    // a sweep run for another design is stale
+    expect(sweepIsStale({ ...s, sweepEdits: [] })).toBe(true);
+  });
+
+  it('whatDiffers names the fields whose shown values differ, in the panel words', () => {
+    const s = withPoint();
+    expect(whatDiffers(s.fields, s.values, s.values)).toBe('the same design');
+    expect(whatDiffers(s.fields, { ...s.values, rpm: 6500 }, s.values)).toBe('engine speed 6000 rpm');
+    expect(whatDiffers(s.fields, { ...s.values, 'runner.length': 320, rpm: 6500 }, s.values)).toBe('engine speed 6000 rpm, runner length 300 mm');
+  });
+
+  it('a refused edit is put back and leaves no undo step behind', () => {
+    let s = reduce(withPoint(), { type: 'showView', view: 'case' });
+    s = press(press(s, '', { downArrow: true }), '.');
+    s = reduce(s, { type: 'pointDone', id: s.request.id, point: { result: syntheticResult(), label: '', ambient: 101325, upstream: 'ambient' } });
+    expect(s.history).toHaveLength(1);
+    s = press(s, '.');
+    expect(s.history).toHaveLength(2);
+    s = reduce(s, { type: 'pointFailed', id: s.request.id, message: 'too long', badInput: true });
+    expect(s.values['runner.length']).toBe(310);
+    expect(s.history).toHaveLength(1);
+    // ctrl+z then goes back to the case as loaded
+    s = press(s, 'z', { ctrl: true });
+    expect(s.values['runner.length']).toBe(300);
+    expect(s.edits).toEqual([]);
   });
 });

@@ -3,7 +3,8 @@ import { printable } from '../../case/printable.js';
 import { performance } from 'node:perf_hooks';
 import { runPipeExperiment } from '../../core/pipe-experiment.js';
 import type { PipeEndModel, PipeExperimentResult } from '../../core/pipe-experiment-model.js';
-import { soundSpeed } from '../../core/gas.js';
+import { GAMMA, R_AIR, soundSpeed } from '../../core/gas.js';
+import { sampleRiemann, solveRiemann, waveFrontSpeeds, type GasState } from '../../analysis/exact-riemann.js';
 import { helmholtzResonator } from '../../analysis/estimates.js';
 import { zeroCrossingFrequency } from '../../analysis/ringing.js';
 import { loadPipeCase, type LoadedPipeCase } from '../../case/load.js';
@@ -14,15 +15,54 @@ import { costProblem, pipeCost } from '../../analysis/cost.js';
 import { CaseError } from '../../case/errors.js';
 import { fix, table } from '../format.js';
 
+/** rows shown per snapshot in the text table when the window size is not known (and the fewest otherwise) */
+export const TABLE_ROWS = 11;
+
 const OPTIONS: OptionSpec[] = [
   { ...SET_OPTION, description: 'override a case value, e.g. --set pipe.length=2m (repeatable)' },
   { name: 'json', type: 'boolean', description: 'print x and the snapshots as JSON (SI units)' },
   UNITS_OPTION,
+  {
+    name: 'rows',
+    type: 'string',
+    value: 'N',
+    description: `rows of each snapshot's table (default: as many as the terminal has room for, at least ${TABLE_ROWS}; ${TABLE_ROWS} when not writing to a terminal)`,
+  },
   ALLOW_LONG_OPTION,
 ];
 
-/** rows shown per snapshot in the text table */
-const TABLE_ROWS = 11;
+/** lines a snapshot takes besides its table rows (blank, title, header) */
+const SNAPSHOT_LINES = 3;
+
+/** Rows per snapshot: --rows, else what one screen holds (a snapshot a screen), else TABLE_ROWS. */
+export function tableRows(text: string | undefined, terminalRows: number | undefined): number {
+  if (text !== undefined) {
+    if (!/^\d+$/.test(text.trim()) || !(Number(text) >= 2 && Number(text) <= 10000))
+      throw new CaseError('--rows', `expected a whole number from 2 to 10000, got '${text}'`, 'option');
+    return Number(text);
+  }
+  if (terminalRows === undefined) return TABLE_ROWS;
+  return Math.max(TABLE_ROWS, terminalRows - SNAPSHOT_LINES - 2);
+}
+
+/**
+ * The exact solution of the initial split as a Riemann problem at time t
+ * (Toro 2009, ch. 4), while it applies: no wall friction or heat transfer,
+ * and no wave has yet reached an end (so the ends play no part). Undefined
+ * otherwise, and at t = 0.
+ */
+export function exactSolution(m: LoadedPipeCase['model'], t: number): ((x: number) => GasState & { T: number }) | undefined {
+  if (m.pipe.wallFriction || m.pipe.wallHeatTransfer || !(t > 0)) return undefined;
+  const state = (s: { pressure: number; temperature: number; velocity: number }): GasState => ({ rho: s.pressure / (R_AIR * s.temperature), u: s.velocity, p: s.pressure });
+  const sol = solveRiemann(state(m.initial.left), state(m.initial.right), GAMMA);
+  const x0 = m.initial.split * m.pipe.length;
+  const front = waveFrontSpeeds(sol);
+  if (x0 + front.left * t < 0 || x0 + front.right * t > m.pipe.length) return undefined;
+  return (x) => {
+    const w = sampleRiemann(sol, (x - x0) / t);
+    return { ...w, T: w.p / (R_AIR * w.rho) };
+  };
+}
 
 export function pipeJson(r: PipeExperimentResult, wallSeconds: number) {
   return { x: r.x, snapshots: r.snapshots, mass: r.mass, ...(r.volumes.length > 0 ? { volumes: r.volumes } : {}), stats: { ...r.stats, wallSeconds } };
@@ -53,7 +93,7 @@ export function volumeLines(m: LoadedPipeCase['model'], r: PipeExperimentResult,
   return s;
 }
 
-export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number, u: Units = METRIC): string {
+export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wallSeconds: number, u: Units = METRIC, rows: number = TABLE_ROWS): string {
   const m = loaded.model;
   // positions along the pipe: metres, or inches
   const xUnit = u.system === 'metric' ? 'm' : 'in';
@@ -64,7 +104,10 @@ export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wall
   s += `  initial split at ${xText(m.initial.split * m.pipe.length)} ${xUnit}: left ${u.text('pressure', m.initial.left.pressure, 2)} ${u.text('temperature', m.initial.left.temperature)}, `;
   s += `right ${u.text('pressure', m.initial.right.pressure, 2)} ${u.text('temperature', m.initial.right.temperature)}\n`;
   const n = r.x.length;
-  const idx = Array.from({ length: Math.min(TABLE_ROWS, n) }, (_, k) => Math.round((k * (n - 1)) / Math.max(1, Math.min(TABLE_ROWS, n) - 1)));
+  const shown = Math.min(rows, n);
+  const idx = Array.from({ length: shown }, (_, k) => Math.round((k * (n - 1)) / Math.max(1, shown - 1)));
+  const exactNote = m.pipe.wallFriction || m.pipe.wallHeatTransfer ? '' : 'exact: the Riemann problem of the split (Toro 2009, ch. 4) while no wave has reached an end';
+  let exactShown = false;
   r.snapshots.forEach((snap, j) => {
     const p = snap.pressure;
     let lo = Infinity;
@@ -73,12 +116,34 @@ export function pipeReport(loaded: LoadedPipeCase, r: PipeExperimentResult, wall
       lo = Math.min(lo, v);
       hi = Math.max(hi, v);
     }
-    s += `\nt = ${fix(snap.time * 1000, 3)} ms   (pressure ${u.value('pressure', lo, 2)}–${u.text('pressure', hi, 2)}; gas mass ${u.text('mass', r.mass[j] ?? NaN, 3)})\n`;
-    s += table(
-      [`x [${xUnit}]`, `p ${u.bracket('pressure')}`, `u ${u.bracket('speed')}`, `T ${u.bracket('temperature')}`],
-      idx.map((i) => [xText(r.x[i]!), u.value('pressure', p[i]!, 2), u.value('speed', snap.velocity[i]!, 1), u.value('temperature', snap.temperature[i]!, 1)]),
-    );
+    const exact = exactSolution(m, snap.time);
+    const reached = !exact && exactNote !== '' && snap.time > 0 ? '; a wave has reached an end: no exact column' : '';
+    s += `\nt = ${fix(snap.time * 1000, 3)} ms   (pressure ${u.value('pressure', lo, 2)}–${u.text('pressure', hi, 2)}; gas mass ${u.text('mass', r.mass[j] ?? NaN, 3)}${reached})\n`;
+    if (exact) {
+      exactShown = true;
+      s += table(
+        [`x [${xUnit}]`, `p ${u.bracket('pressure')}`, 'exact', `u ${u.bracket('speed')}`, 'exact', `T ${u.bracket('temperature')}`, 'exact'],
+        idx.map((i) => {
+          const e = exact(r.x[i]!);
+          return [
+            xText(r.x[i]!),
+            u.value('pressure', p[i]!, 2),
+            u.value('pressure', e.p, 2),
+            u.value('speed', snap.velocity[i]!, 1),
+            u.value('speed', e.u, 1),
+            u.value('temperature', snap.temperature[i]!, 1),
+            u.value('temperature', e.T, 1),
+          ];
+        }),
+      );
+    } else {
+      s += table(
+        [`x [${xUnit}]`, `p ${u.bracket('pressure')}`, `u ${u.bracket('speed')}`, `T ${u.bracket('temperature')}`],
+        idx.map((i) => [xText(r.x[i]!), u.value('pressure', p[i]!, 2), u.value('speed', snap.velocity[i]!, 1), u.value('temperature', snap.temperature[i]!, 1)]),
+      );
+    }
   });
+  if (exactShown) s += `\n  ${exactNote}\n`;
   s += volumeLines(m, r, u);
   s += `\n  ${r.stats.nodes} points, ${r.stats.steps} time steps, ${r.stats.scheme} scheme, ${fix(wallSeconds, 2)} s\n`;
   return s;
@@ -127,7 +192,7 @@ examples
     const r = runPipeExperiment(loaded.model);
     const wallSeconds = (performance.now() - t0) / 1000;
     if (args.flag('json')) io.stdout.write(`${JSON.stringify(pipeJson(r, wallSeconds))}\n`);
-    else io.stdout.write(pipeReport(loaded, r, wallSeconds, displayUnits(args, loaded)));
+    else io.stdout.write(pipeReport(loaded, r, wallSeconds, displayUnits(args, loaded), tableRows(args.string('rows'), io.stdoutIsTTY ? io.stdoutRows : undefined)));
     return 0;
   },
 };
