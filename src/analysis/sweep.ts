@@ -7,7 +7,9 @@
  * runner at ambient rest), each later point starts from the converged state
  * of the point before it (the core's warm start). So every point's result
  * depends only on the speeds of its chunk, and a sweep gives bit-identical
- * numbers whether one worker or many run the chunks (see worker-pool.ts).
+ * numbers whether one worker or many run the chunks, a whole chunk on one
+ * thread or each point on another (`sweepPoint` takes the warm start as
+ * data; see worker-pool.ts).
  *
  * Band figure of merit: the mean ηv over a speed band [lo, hi] is the area
  * under the curve over the band divided by the band width,
