@@ -54,9 +54,10 @@ interface ProcessRun {
   points: string;
 }
 
-function sweepProcess(jobs: number): ProcessRun {
+function sweepProcess(jobs: number, sets: readonly string[] = []): ProcessRun {
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, [BIN, 'sweep', DEMO, '--rpm', RANGE, '--jobs', String(jobs), '--json'], { encoding: 'utf8', timeout: 120_000 });
+  const setArgs = sets.flatMap((x) => ['--set', x]);
+  const r = spawnSync(process.execPath, [BIN, 'sweep', DEMO, '--rpm', RANGE, ...setArgs, '--jobs', String(jobs), '--json'], { encoding: 'utf8', timeout: 300_000 });
   const seconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`tractwave sweep --jobs ${jobs} failed (${r.status}): ${r.stderr}`);
   const json = JSON.parse(r.stdout) as { points: unknown[]; stats: { wallSeconds: number } };
@@ -124,6 +125,34 @@ async function processSection(out: string[]): Promise<void> {
     `- of which the sweep itself (the command's stats.wallSeconds): --jobs 1 ${f(best(one, 'sweepSeconds'))} s, --jobs 2 ${f(best(two, 'sweepSeconds'))} s ` +
       `(${f(best(one, 'sweepSeconds') / best(two, 'sweepSeconds'))}×); the rest (start-up, case, output; the same for both) ${f(rest(one))} / ${f(rest(two))} s median`,
   );
+  // where a thread's time goes: the same sweep twice on one thread (the second with the compiler warm)
+  const built = existsSync(join(ROOT, 'dist', 'analysis', 'sweep.js'));
+  if (built) {
+    const code =
+      `const { parentPort } = require('node:worker_threads');` +
+      `(async () => { const { loadCase } = await import(${JSON.stringify(pathToFileURL(join(ROOT, 'dist', 'case', 'load.js')).href)});` +
+      `const { runSweepSerial } = await import(${JSON.stringify(pathToFileURL(join(ROOT, 'dist', 'analysis', 'sweep.js')).href)});` +
+      `const m = (await loadCase(${JSON.stringify(DEMO)})).model; const rpms = []; for (let r = 3000; r <= 10250; r += 250) rpms.push(r);` +
+      `const t0 = performance.now(); runSweepSerial(m, rpms); const t1 = performance.now(); runSweepSerial(m, rpms);` +
+      `parentPort.postMessage([t1 - t0, performance.now() - t1]); })();`;
+    const { Worker } = await import('node:worker_threads');
+    const times: number[][] = [];
+    for (let k = 0; k < 2; k++) {
+      const w = new Worker(code, { eval: true });
+      times.push(await new Promise<number[]>((r) => w.once('message', r)));
+      await w.terminate();
+    }
+    const cold = Math.min(...times.map((t) => t[0]!));
+    const warm = Math.min(...times.map((t) => t[1]!));
+    out.push(
+      `- one thread, the same 30-point sweep twice: first ${f(cold / 1000)} s, second ${f(warm / 1000)} s: each new thread pays about ${f((cold - warm) / 1000)} s ` +
+        `compiling (V8's compiler threads then compete with the sweep's for the 2 cores), which a second worker cannot halve, nor the process start-up above`,
+    );
+  }
+  const fine = ['numerics.meshSize=4mm'];
+  const f1 = Math.min(...[0, 1].map(() => sweepProcess(1, fine).sweepSeconds));
+  const f2 = Math.min(...[0, 1].map(() => sweepProcess(2, fine).sweepSeconds));
+  out.push(`- the same sweep on a 4 mm mesh (more work per point; best of 2): the sweep itself --jobs 1 ${f(f1)} s, --jobs 2 ${f(f2)} s (${f(f1 / f2)}×)`);
 }
 
 // ------------------------------------------------------- 2. the view's sweep
