@@ -1,5 +1,5 @@
 // Single-file ESM bundles: the command line (dist/tractwave.mjs) and the
-// two workers (dist/sweep-worker.mjs, dist/point-worker.mjs).
+// pool's worker (dist/sweep-worker.mjs: sweep points and the view's points).
 // Start-up matters over SSH: one file parses faster than hundreds of modules.
 // See STACK.md: platform node, format esm, NODE_ENV=production, a
 // createRequire banner (for CommonJS dependencies that call require), and
@@ -36,5 +36,3 @@ await build({ ...common, entryPoints: [join(root, 'src/cli/main.ts')], outfile: 
 // The sweep worker on its own (physics and case loading only, no Ink): a
 // worker thread loads it in tens of milliseconds instead of the whole CLI.
 await build({ ...common, entryPoints: [join(root, 'src/analysis/worker.ts')], outfile: join(root, 'dist/sweep-worker.mjs') });
-// The terminal view's point worker, so a re-run never blocks the keys.
-await build({ ...common, entryPoints: [join(root, 'src/ui/worker.ts')], outfile: join(root, 'dist/point-worker.mjs') });

@@ -7,7 +7,9 @@
  * runner at ambient rest), each later point starts from the converged state
  * of the point before it (the core's warm start). So every point's result
  * depends only on the speeds of its chunk, and a sweep gives bit-identical
- * numbers whether one worker or many run the chunks (see worker-pool.ts).
+ * numbers whether one worker or many run the chunks, a whole chunk on one
+ * thread or each point on another (`sweepPoint` takes the warm start as
+ * data; see worker-pool.ts).
  *
  * Band figure of merit: the mean ηv over a speed band [lo, hi] is the area
  * under the curve over the band divided by the band width,
@@ -58,31 +60,49 @@ export function chunkSpeeds(rpms: readonly number[], size = SWEEP_CHUNK_POINTS):
 }
 
 /**
+ * One point of a sweep: `rpm` on `model`, started from `warm` (the converged
+ * state of the point before it in its chunk) or from rest. Returns what the
+ * sweep keeps and the converged state for the next point of the chunk. The
+ * serial run, the worker threads and the terminal view all go through here,
+ * so a point's numbers depend only on its model, speed and warm start.
+ */
+export function sweepPoint(
+  model: EngineModel,
+  rpm: number,
+  assumptions: Partial<OutputAssumptions> = {},
+  warm?: WarmStart,
+): { point: SweepPoint; warmStart: WarmStart } {
+  const m: EngineModel = { ...model, rpm };
+  const { result, warmStart } = simulatePoint(m, warm ? { warmStart: warm, mapPoints: 2 } : { mapPoints: 2 });
+  const est = outputEstimate(result.volumetricEfficiency, result.referenceMass, rpm, assumptions);
+  const point: SweepPoint = {
+    rpm,
+    volumetricEfficiency: result.volumetricEfficiency,
+    torque: est.torque,
+    power: est.power,
+    converged: result.converged,
+    cycles: result.cycles,
+    massImbalance: result.massImbalance,
+    deliveredMass: result.deliveredMass,
+    trappedMass: result.trappedMass,
+    residualFraction: result.residualFraction,
+    ivcPressure: result.ivcPressure,
+    peakReverseFlow: result.peakReverseFlow,
+    pulse: pulseTiming(result, m),
+  };
+  return { point, warmStart };
+}
+
+/**
  * The points of one chunk, one at a time: the first speed cold, each next
  * one warm-started from the previous converged state.
  */
 export function* chunkPoints(model: EngineModel, rpms: readonly number[], assumptions: Partial<OutputAssumptions> = {}): Generator<SweepPoint> {
   let warm: WarmStart | undefined;
   for (const rpm of rpms) {
-    const m: EngineModel = { ...model, rpm };
-    const { result, warmStart } = simulatePoint(m, warm ? { warmStart: warm, mapPoints: 2 } : { mapPoints: 2 });
+    const { point, warmStart } = sweepPoint(model, rpm, assumptions, warm);
     warm = warmStart;
-    const est = outputEstimate(result.volumetricEfficiency, result.referenceMass, rpm, assumptions);
-    yield {
-      rpm,
-      volumetricEfficiency: result.volumetricEfficiency,
-      torque: est.torque,
-      power: est.power,
-      converged: result.converged,
-      cycles: result.cycles,
-      massImbalance: result.massImbalance,
-      deliveredMass: result.deliveredMass,
-      trappedMass: result.trappedMass,
-      residualFraction: result.residualFraction,
-      ivcPressure: result.ivcPressure,
-      peakReverseFlow: result.peakReverseFlow,
-      pulse: pulseTiming(result, m),
-    };
+    yield point;
   }
 }
 

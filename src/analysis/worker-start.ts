@@ -1,6 +1,6 @@
 /**
- * Starting a worker thread for a module of src/ ('analysis/worker' for
- * sweeps, 'ui/worker' for the terminal view's points), in whichever of the
+ * Starting a worker thread for a module of src/ ('analysis/worker', the
+ * pool's worker for sweeps and the terminal view's points), in whichever of the
  * three layouts the code is running:
  *   - .ts source (vitest, tsx): Node 20 cannot start a .ts worker. The
  *     module and its imports are bundled once per process in memory with
@@ -23,13 +23,12 @@ import { createRequire } from 'node:module';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 
-export type WorkerModule = 'analysis/worker' | 'ui/worker';
+export type WorkerModule = 'analysis/worker';
 export type WorkerLayout = 'source' | 'compiled' | 'bundle';
 
 /** Worker-only bundles the build leaves beside the main bundle (scripts/bundle.mjs). */
 export const WORKER_BUNDLES: Readonly<Record<WorkerModule, string>> = {
   'analysis/worker': 'sweep-worker.mjs',
-  'ui/worker': 'point-worker.mjs',
 };
 
 /** How workers are started in the layout of the file at `moduleUrl` (this one by default). */

@@ -8,8 +8,6 @@ import { render } from 'ink';
 import { App } from './app.js';
 import { openCase } from './case-session.js';
 import { threadEngine } from './engine-service.js';
-// loaded here so a single-file bundle started as the point worker serves points
-import './worker.js';
 
 export { App } from './app.js';
 export type { AppProps } from './app.js';
@@ -29,6 +27,28 @@ export interface UiOptions {
   allowLong?: boolean;
 }
 
+/**
+ * How the view draws (Ink's render options; bench/pool.ts measures with these).
+ * Over SSH every byte counts: with `incrementalRendering` Ink rewrites only
+ * the lines that changed since the last frame instead of erasing and
+ * writing the whole screen; playing the cycle changes a few columns of most
+ * chart rows, so this roughly halves the bytes per frame (bench/RESULTS.md).
+ */
+export const VIEW_RENDER_OPTIONS = {
+  exitOnCtrlC: false, // ctrl+c is a key like q: the app leaves cleanly
+  patchConsole: true,
+  maxFps: 30,
+  incrementalRendering: true,
+} as const;
+
+/**
+ * How long the view waits after the last change before running the point
+ * [ms]. Key repeat comes every 30–50 ms, so a held key still runs once at the
+ * end; the point itself takes a few tens of ms on a warm worker, so an edit
+ * shows in about 100 ms (bench/pool.ts).
+ */
+export const VIEW_DEBOUNCE_MS = 40;
+
 export async function startUi(casePath: string, options: UiOptions = {}): Promise<number> {
   const session = await openCase(casePath, options); // a bad case throws CaseError: the CLI prints it, exit 2
   const engine = threadEngine();
@@ -43,11 +63,7 @@ export async function startUi(casePath: string, options: UiOptions = {}): Promis
   if (useAlt) out.write(ENTER_ALT);
   process.once('exit', restore);
 
-  const app = render(<App session={session} engine={engine} />, {
-    exitOnCtrlC: false, // ctrl+c is a key like q: the app leaves cleanly
-    patchConsole: true,
-    maxFps: 30,
-  });
+  const app = render(<App session={session} engine={engine} debounceMs={VIEW_DEBOUNCE_MS} />, VIEW_RENDER_OPTIONS);
   // a signal leaves as cleanly as q, and the exit code says which signal it was
   let code = 0;
   const handlers = (Object.keys(SIGNAL_EXIT) as (keyof typeof SIGNAL_EXIT)[]).map((sig) => {

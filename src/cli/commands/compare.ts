@@ -8,7 +8,7 @@ import { assemblyLine } from '../../present/network-line.js';
 import { performance } from 'node:perf_hooks';
 import { winnerAt, winningSpans, type WinSpan } from '../../analysis/compare.js';
 import { summariseSweep, type SweepPoint } from '../../analysis/sweep.js';
-import { runSweeps } from '../../analysis/worker-pool.js';
+import { prestartPool, runSweeps } from '../../analysis/worker-pool.js';
 import { expectPositionals, optionHelp, parseArgs, type OptionSpec } from '../args.js';
 import { ALLOW_EXTREME_OPTION, ALLOW_LONG_OPTION, checkCost, displayUnits, SET_OPTION, UNITS_OPTION, type Command } from '../command.js';
 import { combinedCost, engineCost } from '../../analysis/cost.js';
@@ -92,6 +92,7 @@ examples
     const [fileA, fileB] = expectPositionals(args, ['A.yaml', 'B.yaml'], 'compare');
     const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
+    prestartPool(jobs); // the workers load while the case does
     const a = await loadForSweep(fileA!, args, io);
     const b = await loadForSweep(fileB!, args, io);
     const u = displayUnits(args, a);

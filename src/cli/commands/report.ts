@@ -3,6 +3,7 @@
  * the design, the speed curves, the operating points and the mass balance
  * (src/report builds it; this file reads the options and writes the files).
  */
+import { prestartPool } from '../../analysis/worker-pool.js';
 import { existsSync, statSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import { basename, dirname, extname, join, resolve } from 'node:path';
@@ -129,6 +130,7 @@ examples
     const units = parseUnits(args);
     const at = parseAt(args);
     const jobs = parseJobs(args);
+    prestartPool(jobs); // the workers load while the case does
     const svgDir = args.string('svg');
     if (svgDir !== undefined) {
       const full = resolve(io.cwd, svgDir);

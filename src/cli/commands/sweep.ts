@@ -19,7 +19,7 @@ import * as asciichart from 'asciichart';
 import { caseEstimates, DEFAULT_OUTPUT_ASSUMPTIONS, type CaseEstimates, type OutputAssumptions } from '../../analysis/estimates.js';
 import { parseBand, parseGrid, RangeInputError, type NumberGrid } from '../../analysis/range.js';
 import { summariseSweep, SWEEP_CHUNK_POINTS, type SweepPoint, type SweepSummary } from '../../analysis/sweep.js';
-import { defaultJobs, runSweep } from '../../analysis/worker-pool.js';
+import { defaultJobs, prestartPool, runSweep } from '../../analysis/worker-pool.js';
 import { CaseError } from '../../case/errors.js';
 import { loadCase, type LoadedCase } from '../../case/load.js';
 import { speedProblem, type Case } from '../../case/schema.js';
@@ -557,6 +557,7 @@ examples
       checkTarget(svg, '--svg', io, args.flag('force'));
     }
     const jobs = parseJobs(args);
+    prestartPool(jobs); // the workers load while the case does
     const loaded = await loadForSweep(file!, args, io);
     const u = displayUnits(args, loaded);
     const dyno = await dynoOf(args, loaded, io.cwd);

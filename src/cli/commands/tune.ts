@@ -28,7 +28,7 @@ import { NELDER_MEAD_LIBRARY } from '../../analysis/nelder-mead.js';
 import { canonicalJson, gridSize, parseShard, shardDesigns, shardSize, ShardInputError, type Environment, type Shard } from '../../analysis/shard.js';
 import { bandMean, type SweepPoint } from '../../analysis/sweep.js';
 import { designAt, edgePaths, HEAT_SHADES, rankDesigns, shadeIndex, shadeRanges, type DesignPoint, type RankedDesign, type VaryAxis } from '../../analysis/tune.js';
-import { runSweeps } from '../../analysis/worker-pool.js';
+import { prestartPool, runSweeps } from '../../analysis/worker-pool.js';
 import { CaseError, isCaseError } from '../../case/errors.js';
 import { buildCase, parseYamlText, readCaseText, type LoadedCase } from '../../case/load.js';
 import { MODEL_UNIT, UNITS } from '../../case/units.js';
@@ -839,6 +839,7 @@ examples
     const [file] = expectPositionals(args, ['CASE'], 'tune');
     const csv = csvAndJsonChoice(args, io);
     const jobs = parseJobs(args);
+    prestartPool(jobs); // the workers load while the case does
     const shardText = args.string('shard');
     const searching = args.flag('search');
     if (args.string('budget') !== undefined && !searching) throw new CaseError('--budget', 'only applies with --search', 'option');
