@@ -8,6 +8,7 @@
  *   probe.ts growth  SCHEME MESHES CYCLES    time per cycle at each mesh ("0.016,0.008")
  *   probe.ts sweep   JOBS POINTS [MESH_M]    speed sweep through the analysis runner (default: the demo's mesh)
  *   probe.ts chunks  POINTS                  CPU time per sweep chunk, two-worker bound
+ *   probe.ts accuracy SCHEME MESHES RPMS     ηv and time per point (cold start) at each mesh and speed ("0.02,0.01" "3000,3250")
  *   probe.ts idle                            imports only (baseline resident size)
  *
  * Rates are node updates per second: mesh points × time steps / seconds
@@ -166,7 +167,7 @@ async function growth(name: SchemeName, meshes: number[], cycles: number): Promi
 
 /** A speed sweep of `points` speeds from 3000 rpm in 250 rpm steps, on `jobs` workers, with the analysis runner. */
 async function sweep(jobs: number, points: number, meshSize?: number): Promise<void> {
-  let runSweep: ((m: EngineModel, rpms: readonly number[], o: { jobs: number }) => Promise<{ converged: boolean; massImbalance: number }[]>) | undefined;
+  let runSweep: ((m: EngineModel, rpms: readonly number[], o: { jobs: number }) => Promise<{ converged: boolean; massImbalance: number; volumetricEfficiency: number; rpm: number }[]>) | undefined;
   try {
     ({ runSweep } = await import('../src/analysis/worker-pool.js'));
   } catch (e) {
@@ -187,7 +188,37 @@ async function sweep(jobs: number, points: number, meshSize?: number): Promise<v
     unconverged: out.filter((p) => !p.converged).length,
     worstImbalance,
     maxRss: maxRssBytes(),
+    meshSize: model.numerics.meshSize,
+    rpms: out.map((p) => p.rpm),
+    eta: out.map((p) => p.volumetricEfficiency),
   });
+}
+
+/**
+ * ηv and the time of one point, started cold (no warm start, as a single
+ * `tractwave run`), at every mesh and speed; the JIT is warmed first.
+ */
+async function accuracy(name: SchemeName, meshes: number[], rpms: number[]): Promise<void> {
+  const base = await demoModel({ scheme: name });
+  warmUp({ ...base, numerics: { ...base.numerics, meshSize: 0.01 } }, 0.6);
+  const rows: { meshSize: number; nodes: number; eta: number[]; seconds: number[]; cycles: number[] }[] = [];
+  for (const meshSize of meshes) {
+    const eta: number[] = [];
+    const seconds: number[] = [];
+    const cycles: number[] = [];
+    let nodes = 0;
+    for (const rpm of rpms) {
+      const model: EngineModel = { ...base, rpm, numerics: { ...base.numerics, meshSize } };
+      const t0 = performance.now();
+      const { result } = simulatePoint(model);
+      seconds.push((performance.now() - t0) / 1000);
+      eta.push(result.volumetricEfficiency);
+      cycles.push(result.cycles);
+      nodes = result.stats.nodes;
+    }
+    rows.push({ meshSize, nodes, eta, seconds, cycles });
+  }
+  emit({ kind: 'accuracy', scheme: name, rpms, rows });
 }
 
 /**
@@ -230,6 +261,12 @@ async function main(argv: string[]): Promise<void> {
       return sweep(Math.round(num(a, 'jobs')), Math.round(num(b, 'points')), c === undefined ? undefined : num(c, 'mesh size'));
     case 'chunks':
       return chunks(Math.round(num(a, 'points')));
+    case 'accuracy':
+      return accuracy(
+        scheme(a),
+        (b ?? '').split(',').map((x) => num(x, 'mesh size')),
+        (c ?? '').split(',').map((x) => num(x, 'speed')),
+      );
     case 'idle':
       await demoModel();
       emit({ kind: 'idle', maxRss: maxRssBytes() });

@@ -10,8 +10,13 @@
  * Timed figures are the best of a few repeats (the least disturbed by other
  * work on the machine); start-up figures are medians of 5.
  *
+ * Accuracy per second: ηv of each scheme at each mesh against a 1.25 mm
+ * reference (conservative scheme) at the 30 sweep speeds, the time of one
+ * point, the curve of error against cost, and the 30-point sweep at the
+ * demo's own mesh checked against the reference at every point.
+ *
  * Options: --quick (fewer repeats, for trying the bench itself);
- * --only=rates|growth|sweeps|startup (one section; RESULTS.md is not written).
+ * --only=rates|growth|accuracy|sweeps|startup|pool (one section; RESULTS.md is not written).
  */
 import { spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
@@ -49,6 +54,8 @@ interface Row {
 }
 
 const rows: Row[] = [];
+/** markdown lines from bench/pool.ts, appended to RESULTS.md */
+const poolLines: string[] = [];
 const notes: string[] = [];
 
 function row(group: string, item: string, value: string, target = ''): void {
@@ -212,12 +219,23 @@ function rates(tmp: string): void {
     const ratioE = c !== undefined ? c / e.rate : undefined;
     if (ratio !== undefined) console.log(`  ratio C / ${s}: pipe update ${ratio.toFixed(2)}×, whole engine ${ratioE!.toFixed(2)}×   (target: at most 2×)`);
     row('Update rate (4 mm, demo)', `${s}: pipe update`, mega(p.rate), ratio !== undefined ? `C ${ratio.toFixed(2)}× faster (target ≤ 2×: ${ratio <= 2 ? 'met' : 'missed'})` : 'no C floor');
-    row('Update rate (4 mm, demo)', `${s}: whole engine`, mega(e.rate), ratioE !== undefined ? `C ${ratioE.toFixed(2)}× faster` : '');
+    row(
+      'Update rate (4 mm, demo)',
+      `${s}: whole engine`,
+      mega(e.rate),
+      ratioE !== undefined ? `C ${ratioE.toFixed(2)}× faster${s === 'conservative' ? ` (target ≤ 5×: ${ratioE <= 5 ? 'met' : 'missed'})` : ''}` : '',
+    );
+    row('Update rate (4 mm, demo)', `${s}: time outside the pipe kernel`, `${(100 * (1 - e.rate / p.rate)).toFixed(0)} %`, 'boundaries, valves, volumes, samples and maps: 1 − whole-engine rate / pipe-update rate');
   }
   if (c !== undefined) row('Update rate (4 mm, demo)', `C floor, ${nodes} nodes`, mega(c), 'gcc -O2, homentropic, closed ends');
   row('Update rate (4 mm, demo)', 'the C floor ported to TypeScript', mega(port), c !== undefined ? `C ${(c / port).toFixed(2)}× faster (language and JIT alone)` : '');
   for (const s of SCHEMES)
-    row('Update rate (4 mm, demo)', `${s}: work per node vs the floor`, `${(port / pipe[s]!.rate).toFixed(2)}×`, 'TypeScript floor rate / pipe-update rate: the extra physics per node');
+    row(
+      'Update rate (4 mm, demo)',
+      `${s}: work per node vs the floor`,
+      `${(port / pipe[s]!.rate).toFixed(2)}×`,
+      `TypeScript floor rate / pipe-update rate: the extra physics per node${s === 'conservative' ? ` (target ≤ 4×: ${port / pipe[s]!.rate <= 4 ? 'met' : 'missed'})` : ''}`,
+    );
 
   // the shipped command line (cold process: includes JIT warm-up), for what a user sees
   if (existsSync(BUNDLE) || existsSync(join(ROOT, 'dist', 'cli', 'main.js'))) {
@@ -265,10 +283,140 @@ function growth(): void {
   }
 }
 
-// ------------------------------------------------------------------ 3. sweeps and memory
+// ------------------------------------------------------------------ 3. accuracy per second
+
+/** the 30 sweep speeds [rpm] */
+const SWEEP_RPMS = Array.from({ length: SWEEP_POINTS }, (_, i) => 3000 + 250 * i);
+/** the reference mesh [m] */
+const REF_MESH = 0.00125;
+const ACC_MESHES = [0.04, 0.03, 0.02, 0.015, 0.01, 0.005, 0.0025];
+
+interface AccuracyProbe {
+  scheme: Scheme;
+  rpms: number[];
+  rows: { meshSize: number; nodes: number; eta: number[]; seconds: number[]; cycles: number[] }[];
+}
+
+/** one probe in a child process, asynchronously (to run two side by side) */
+function probeAsync<T>(...args: (string | number)[]): Promise<T> {
+  return new Promise((done, fail) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', PROBE, ...args.map(String)], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });
+    let out = '';
+    let err = '';
+    child.stdout.on('data', (d: Buffer) => (out += d.toString('utf8')));
+    child.stderr.on('data', (d: Buffer) => (err += d.toString('utf8')));
+    child.on('exit', (code) => {
+      const last = out.trim().split('\n').pop() ?? '';
+      if (code !== 0 || !last.startsWith('{')) fail(new Error(`probe ${args.join(' ')} failed (exit ${code}): ${err.trim().split('\n').slice(0, 4).join(' | ')}`));
+      else done(JSON.parse(last) as T);
+    });
+  });
+}
+
+const referenceEta = new Map<number, number>();
+
+/** ηv at the given speeds on the 1.25 mm mesh (conservative scheme), the missing ones computed in two processes side by side */
+async function reference(rpms: readonly number[] = SWEEP_RPMS): Promise<Map<number, number>> {
+  const need = rpms.filter((r) => !referenceEta.has(r));
+  if (need.length === 0) return referenceEta;
+  const t0 = performance.now();
+  const halves = [need.filter((_, i) => i % 2 === 0), need.filter((_, i) => i % 2 === 1)].filter((h) => h.length > 0);
+  const got = await Promise.all(halves.map((h) => probeAsync<AccuracyProbe>('accuracy', 'conservative', REF_MESH, h.join(','))));
+  for (const g of got) g.rpms.forEach((r, i) => referenceEta.set(r, g.rows[0]!.eta[i]!));
+  console.log(`  reference: conservative scheme, ${REF_MESH * 1000} mm mesh, ${need.length} speeds (${((performance.now() - t0) / 1000).toFixed(0)} s on two processes)`);
+  return referenceEta;
+}
+
+/** the worst and mean |error| [%] of ηv against the reference over the given speeds */
+function errors(rpms: readonly number[], eta: readonly number[], ref: Map<number, number>): { worst: number; mean: number; at: number } {
+  let worst = 0;
+  let sum = 0;
+  let at = rpms[0] ?? 0;
+  rpms.forEach((r, i) => {
+    const e = Math.abs(eta[i]! / ref.get(r)! - 1) * 100;
+    sum += e;
+    if (e > worst) {
+      worst = e;
+      at = r;
+    }
+  });
+  return { worst, mean: sum / rpms.length, at };
+}
+
+/** a small text plot of worst error [%] (log) against time per point [ms] (log), one letter per scheme */
+function curvePlot(points: { scheme: Scheme; ms: number; err: number; mesh: number }[]): string[] {
+  const W = 60;
+  const H = 14;
+  const lx = points.map((p) => Math.log10(p.ms));
+  const ly = points.map((p) => Math.log10(Math.max(p.err, 1e-4)));
+  const x0 = Math.floor(Math.min(...lx));
+  const x1 = Math.ceil(Math.max(...lx));
+  const y0 = Math.floor(Math.min(...ly));
+  const y1 = Math.ceil(Math.max(...ly));
+  const grid = Array.from({ length: H + 1 }, () => Array.from({ length: W + 1 }, () => ' '));
+  const yTarget = Math.log10(0.2);
+  const rowOf = (y: number) => Math.round(((y1 - y) / Math.max(1e-9, y1 - y0)) * H);
+  if (yTarget >= y0 && yTarget <= y1) for (let c = 0; c <= W; c++) grid[rowOf(yTarget)]![c] = '·';
+  points.forEach((p, k) => {
+    const c = Math.round(((lx[k]! - x0) / Math.max(1e-9, x1 - x0)) * W);
+    grid[rowOf(ly[k]!)]![c] = p.scheme === 'conservative' ? 'c' : 'm';
+  });
+  const labels = new Map<number, string>();
+  for (let d = y0; d <= y1; d++) labels.set(rowOf(d), `${Number((10 ** d).toPrecision(1))}`);
+  const lines = grid.map((g, r) => `${(labels.get(r) ?? '').padStart(6)} |${g.join('')}`);
+  lines.push(`${''.padStart(6)} +${'-'.repeat(W + 1)}`);
+  const ticks = Array.from({ length: x1 - x0 + 1 }, (_, i) => 10 ** (x0 + i));
+  let axis = ''.padStart(8);
+  ticks.forEach((t, i) => {
+    const col = 8 + Math.round((i / Math.max(1, x1 - x0)) * W);
+    axis = axis.padEnd(col) + `${t} ms`;
+  });
+  lines.push(axis);
+  lines.push('worst |ηv error| [%] against time per point [ms], both axes logarithmic; c conservative, m characteristics; ··· the 0.2 % target');
+  return lines;
+}
+
+const curveLines: string[] = [];
+
+async function accuracyPerSecond(): Promise<void> {
+  heading(`Accuracy per second: ηv against a ${REF_MESH * 1000} mm reference (conservative) at the ${SWEEP_POINTS} sweep speeds, time per point (cold start)`);
+  const speeds = QUICK ? SWEEP_RPMS.filter((_, i) => i % 5 === 0) : SWEEP_RPMS.filter((_, i) => i % 2 === 0);
+  const ref = await reference(QUICK ? speeds : SWEEP_RPMS);
+  const meshes = QUICK ? [0.02, 0.01, 0.005] : ACC_MESHES;
+  const pts: { scheme: Scheme; ms: number; err: number; mesh: number }[] = [];
+  const probes = await Promise.all(SCHEMES.map((s) => probeAsync<AccuracyProbe>('accuracy', s, meshes.join(','), speeds.join(','))));
+  for (const a of probes) {
+    for (const r of a.rows) {
+      const e = errors(a.rpms, r.eta, ref);
+      const msPer = (1000 * r.seconds.reduce((x, y) => x + y, 0)) / r.seconds.length;
+      const cyc = r.cycles.reduce((x, y) => x + y, 0) / r.cycles.length;
+      pts.push({ scheme: a.scheme, ms: msPer, err: e.worst, mesh: r.meshSize });
+      const mm = (r.meshSize * 1000).toFixed(r.meshSize < 0.01 ? 1 : 0);
+      console.log(
+        `  ${a.scheme.padEnd(15)} ${mm.padStart(4)} mm  ${String(r.nodes).padStart(4)} nodes  worst ${e.worst.toFixed(3)} % (at ${e.at} rpm), mean ${e.mean.toFixed(3)} %  ${msPer.toFixed(1).padStart(6)} ms/point  ${cyc.toFixed(1)} cycles`,
+      );
+      row(
+        'Accuracy per second',
+        `${a.scheme}, ${mm} mm (${r.nodes} nodes)`,
+        `worst ${e.worst.toFixed(3)} %, mean ${e.mean.toFixed(3)} %`,
+        `${msPer.toFixed(1)} ms/point, ${cyc.toFixed(1)} cycles (target ≤ 0.2 %: ${e.worst <= 0.2 ? 'met' : 'missed'})`,
+      );
+    }
+  }
+  note(
+    `accuracy rows: ${speeds.length} of the ${SWEEP_POINTS} sweep speeds (${speeds[0]}–${speeds[speeds.length - 1]} rpm), each point from a cold start at the demo's tolerance; the two schemes ran side by side (two processes), so their times are comparable with each other, not with the single-process rates`,
+  );
+  curveLines.push(...curvePlot(pts));
+  for (const l of curveLines) console.log(`  ${l}`);
+}
+
+// ------------------------------------------------------------------ 4. sweeps and memory
 
 interface SweepProbe {
   missing?: string;
+  meshSize: number;
+  rpms: number[];
+  eta: number[];
   jobs: number;
   points: number;
   seconds: number;
@@ -307,8 +455,8 @@ function cliSweep(jobs: number, tmp: string): { seconds: number; sweepSeconds: n
   return { seconds: r.seconds, sweepSeconds, maxRss: Number(m[1]) * 1024 };
 }
 
-function sweeps(tmp: string): void {
-  heading(`Speed sweep, ${SWEEP_POINTS} points (${SWEEP_RANGE} rpm, demo case, its 10 mm mesh), 1 and 2 workers`);
+async function sweeps(tmp: string): Promise<void> {
+  heading(`Speed sweep, ${SWEEP_POINTS} points (${SWEEP_RANGE} rpm, demo case, its own mesh), 1 and 2 workers`);
   const cores = os.availableParallelism();
   if (cores < 2) note(`only ${cores} core: the 2-worker speed-up cannot be measured`);
   const best: Record<number, SweepProbe | undefined> = { 1: undefined, 2: undefined };
@@ -328,8 +476,15 @@ function sweeps(tmp: string): void {
   const two = best[2]!;
   const speedUp = one.seconds / two.seconds;
   console.log(`  speed-up on 2 workers: ${speedUp.toFixed(2)}  (target ≥ 1.6 on 2 cores)`);
-  row('Sweep (30 points)', 'runSweep (demo mesh 10 mm), 1 worker', `${one.seconds.toFixed(2)} s`, '');
-  row('Sweep (30 points)', 'runSweep (demo mesh 10 mm), 2 workers', `${two.seconds.toFixed(2)} s`, `speed-up ${speedUp.toFixed(2)} (target ≥ 1.6: ${speedUp >= 1.6 ? 'met' : 'missed'})`);
+  const meshMm = `${(one.meshSize * 1000).toFixed(0)} mm`;
+  row('Sweep (30 points)', `runSweep (demo mesh ${meshMm}), 1 worker`, `${one.seconds.toFixed(2)} s`, `target ≤ 0.3 s: ${one.seconds <= 0.3 ? 'met' : 'missed'}`);
+  row('Sweep (30 points)', `runSweep (demo mesh ${meshMm}), 2 workers`, `${two.seconds.toFixed(2)} s`, `speed-up ${speedUp.toFixed(2)} (target ≥ 1.6: ${speedUp >= 1.6 ? 'met' : 'missed'})`);
+  if (!QUICK) {
+    const ref = await reference();
+    const e = errors(one.rpms, one.eta, ref);
+    console.log(`  ηv of the 1-worker sweep against the ${REF_MESH * 1000} mm reference: worst ${e.worst.toFixed(3)} % (at ${e.at} rpm), mean ${e.mean.toFixed(3)} %`);
+    row('Sweep (30 points)', `ηv of that sweep vs the ${REF_MESH * 1000} mm reference`, `worst ${e.worst.toFixed(3)} % (${e.at} rpm)`, `every point within 0.2 %: ${e.worst <= 0.2 ? 'met' : 'missed'}`);
+  }
 
   // the same sweep with four times the work per point (4 mm mesh): thread start-up and warm-up weigh less
   if (!QUICK) {
@@ -531,7 +686,9 @@ function writeResults(date: string, load: string, seconds: number): void {
     'The C floor (../shared/bench/ref_moc.c, gcc -O2) is a homentropic characteristics update without',
     'entropy levels, heat transfer or mass correction: a floor for the cost, not a physics reference.',
     '',
+    ...(curveLines.length ? ['Error against cost (accuracy rows above):', '', '```', ...curveLines, '```', ''] : []),
     ...(notes.length ? ['Notes:', '', ...notes.map((n) => `- ${n}`), ''] : []),
+    ...(poolLines.length ? ['## Worker pool and view (bench/pool.ts)', '', ...poolLines, ''] : []),
   ].join('\n');
   const tmp = `${RESULTS}.${process.pid}.tmp`;
   writeFileSync(tmp, md, 'utf8');
@@ -549,8 +706,11 @@ async function main(): Promise<void> {
   try {
     if (!ONLY || ONLY === 'rates') rates(tmp);
     if (!ONLY || ONLY === 'growth') growth();
-    if (!ONLY || ONLY === 'sweeps') sweeps(tmp);
+    if (!ONLY || ONLY === 'accuracy') await accuracyPerSecond();
+    if (!ONLY || ONLY === 'sweeps') await sweeps(tmp);
     if (!ONLY || ONLY === 'startup') await startup();
+    // the worker pool's and the view's measurements (bench/pool.ts, another owner): `benchPool()` returns markdown lines
+    if (existsSync(join(ROOT, 'bench', 'pool.ts')) && (!ONLY || ONLY === 'pool')) poolLines.push(...String(await ((await import(pathToFileURL(join(ROOT, 'bench', 'pool.ts')).href)) as { benchPool: () => Promise<string> }).benchPool()).split('\n'));
   } finally {
     rmSync(tmp, { recursive: true, force: true });
   }

@@ -50,7 +50,10 @@ describe.each(SCHEMES)('divergence is caught and explained (%s)', (scheme) => {
 
   it.each([
     ['absurd wall friction (Fanning factor 50)', (m: EngineModel) => (m.runner.friction = 50)],
-    ['absurd exhaust gas temperature (10⁶ K)', (m: EngineModel) => (m.exhaust.gasTemperature = 1e6)],
+    // 10⁶ K no longer diverges since the exhaust valve's flow is solved implicitly (the cylinder
+    // holds a trace of very hot gas and the run finishes; the case's plausibility guard stops such a
+    // case before it runs): 10⁸ K still drives the pressure negative
+    ['absurd exhaust gas temperature (10⁸ K)', (m: EngineModel) => (m.exhaust.gasTemperature = 1e8)],
     ['a NaN bore', (m: EngineModel) => (m.engine.bore = Number.NaN)],
   ])('%s: stops with the case values in the message', { timeout: 10_000 }, (_label, change) => {
     const e = failure(model(scheme, change));

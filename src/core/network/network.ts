@@ -2,8 +2,9 @@
  * One stepper for any assembly of pipes, volumes and connectors (types.ts).
  *
  * One step of length dt (chosen by the caller, ≤ maxStableDt):
- *   1. every pipe hands over the waves arriving at its ends (`incoming`);
- *   2. every connector solves its ends against the present states of the
+ *   1. every pipe hands over the waves arriving at its ends (`incoming`, at
+ *      mid-step), and every volume estimates its state at mid-step (`predict`);
+ *   2. every connector solves its ends against those mid-step states of the
  *      volumes it touches (valve areas at mid-step) and adds the flows to them;
  *   3. every volume advances with exactly the flows its connectors reported
  *      (so mass and energy are conserved across every joint);
@@ -76,6 +77,7 @@ export class Network {
       p.scheme.incoming('left', dt, p.left.incoming);
       p.scheme.incoming('right', dt, p.right.incoming);
     }
+    for (let i = 0; i < volumes.length; i++) volumes[i]!.predict(ctx);
     for (let i = 0; i < connectors.length; i++) connectors[i]!.solve(ctx);
     for (let i = 0; i < volumes.length; i++) volumes[i]!.advance(ctx);
     for (let i = 0; i < pipes.length; i++) {

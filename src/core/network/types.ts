@@ -130,6 +130,20 @@ export interface Volume {
   burnedFraction(): number;
   /** add a flow into the volume for the present step: mass [kg/s], stagnation enthalpy [W], burned part of the mass [kg/s] */
   addFlow(mass: number, enthalpy: number, burned: number): void;
+  /**
+   * before the connectors solve: make `pressure` and `temperature` the
+   * estimate at mid-step they solve against (until `advance`)
+   */
+  predict(ctx: StepContext): void;
+  /**
+   * ∂p/∂H of the mid-step pressure [Pa/W]: how much higher `pressure` would
+   * be between `predict` and `advance` had the volume received an extra
+   * stagnation enthalpy flow of 1 W over the step (its mid-step pressure is
+   * linear in its internal energy); 0 for a fixed reservoir. For connectors
+   * that solve their own flow implicitly. A field, not a call: no number is
+   * boxed per evaluation.
+   */
+  readonly midPressurePerEnthalpy: number;
   /** advance over the step with the flows added since the last call, then clear them */
   advance(ctx: StepContext): void;
 }

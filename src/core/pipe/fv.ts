@@ -35,7 +35,8 @@
  *   ρ_t + uρ_x + ρu_x = −ρu·(ln F)_x
  *   u_t + uu_x + p_x/ρ = −Φ/ρ
  *   p_t + up_x + γp·u_x = −γpu·(ln F)_x + (γ−1)(q + Φu)
- * then the HLLC flux (Toro 2009 §10.4, pressure-based wave speeds, §10.5.2)
+ * then the HLLC flux (Toro 2009 §10.4, pressure-based wave speeds, §10.5.2,
+ * with the cells' sound speeds)
  * at each interior face, times the face area. The area source is integrated
  * as p̄_i·(F_{i+1} − F_i)/dx with p̄_i the mean of the two evolved face
  * pressures of cell i; friction and heat sources are taken at the evolved
@@ -54,8 +55,23 @@
  * and energy leaving the pipe are exactly what the boundary reports. A closed
  * end (massFlow 0, enthalpyFlow 0) is a wall carrying the end-state pressure.
  * The end face state of the last step (p, u, and ρ from p and the end-state
- * entropy level) is what `sample` reports at x = 0 and x = L, and serves as
- * the ghost value (2·W_face − W_end) for the end cells' slope limiter.
+ * entropy level) is what `sample` reports at x = 0 and x = L. It belongs to
+ * the middle of that step; carried on to the start of the next step along
+ * its trend over the last two steps (linear in time) it gives the ghost value
+ * (2·W_face − W_end) for the end cells' slope limiter. (Used as it was, half a
+ * step old, it made the end cells' slopes wrong by O(1) in smooth flow and
+ * the ends first order.)
+ *
+ * Work per step, in two passes over the cells: (1) limited slopes and the
+ * Hancock predictor of every cell (the end cells' already done by
+ * `incoming`, not repeated; one division serves the three van Leer slopes
+ * and 1/ρ); (2) one pass over the faces, in which the HLLC flux of face j
+ * completes cell j − 1, which is updated at once together with its
+ * primitives, its sound speed and the CFL speed. The HLLC wave-speed
+ * estimates take the cached sound speeds of the two cells beside the face
+ * rather than those of the evolved face values (they differ by O(dx); the
+ * estimates need bounds, not exact speeds), so a face costs no square root
+ * unless a shock factor is needed.
  *
  * `incoming` and `step` allocate nothing: all work arrays are preallocated.
  */
@@ -65,6 +81,8 @@ import type { Mesh } from './mesh.js';
 import type { GasState, PipeScheme, PipeWall, Side } from './scheme.js';
 
 const GM1 = GAMMA - 1;
+/** 1/(γ−1) */
+const IGM1 = 1 / GM1;
 /** (γ+1)/(2γ), pressure-based wave-speed estimate (Toro 2009 eq. 10.61) */
 const GQ = (GAMMA + 1) / (2 * GAMMA);
 
@@ -97,10 +115,17 @@ export class ConservativeScheme implements PipeScheme {
   private readonly m: Float64Array; // ρF [kg/m]
   private readonly mo: Float64Array; // ρuF [kg/s]
   private readonly en: Float64Array; // EF [J/m]
-  // primitives of the cells
+  // primitives of the cells, and their sound speeds (kept by updatePrimitives)
   private readonly r: Float64Array;
   private readonly u: Float64Array;
   private readonly p: Float64Array;
+  private readonly a: Float64Array;
+  /** 1/Fc_i [1/m²] */
+  private readonly iFc: Float64Array;
+  /** 1/Dc_i [1/m] */
+  private readonly iDc: Float64Array;
+  /** dt of the end cells' predictor already done by `incoming` (per side), 0 = not done */
+  private readonly endDt = new Float64Array(2);
   // evolved (t + dt/2) left- and right-face values of each cell
   private readonly rL: Float64Array;
   private readonly uL: Float64Array;
@@ -108,20 +133,18 @@ export class ConservativeScheme implements PipeScheme {
   private readonly rR: Float64Array;
   private readonly uR: Float64Array;
   private readonly pR: Float64Array;
-  // x-directed face fluxes (already times the face area), faces 0..N
-  private readonly g0: Float64Array;
-  private readonly g1: Float64Array;
-  private readonly g2: Float64Array;
   // end face states [left, right]: density, x-velocity, pressure
   private readonly faceR = new Float64Array(2);
   private readonly faceU = new Float64Array(2);
   private readonly faceP = new Float64Array(2);
+  // the end face states carried to the start of the next step (ghost values), see endGhosts
+  private readonly ghostR = new Float64Array(2);
+  private readonly ghostU = new Float64Array(2);
+  private readonly ghostP = new Float64Array(2);
+  /** length of the last step [s]; 0 after a state was set (no trend of the end states yet) */
+  private dtLast = 0;
   /** largest |u| + a over the cells, kept by updatePrimitives [m/s] */
   private waveSpeed = 0; // 0 until the first state is set
-  // HLLC result per unit area
-  private h0 = 0;
-  private h1 = 0;
-  private h2 = 0;
 
   constructor(mesh: Mesh, wall: PipeWall) {
     if (mesh.n < 2) throw new Error('conservative scheme needs at least two mesh points');
@@ -135,6 +158,8 @@ export class ConservativeScheme implements PipeScheme {
     this.Ff = Float64Array.from(mesh.area);
     this.Fc = new Float64Array(N);
     this.Dc = new Float64Array(N);
+    this.iFc = new Float64Array(N);
+    this.iDc = new Float64Array(N);
     this.dlnF = new Float64Array(N);
     for (let i = 0; i < N; i++) {
       const d0 = mesh.diameter[i]!;
@@ -142,6 +167,8 @@ export class ConservativeScheme implements PipeScheme {
       const fc = (Math.PI / 12) * (d0 * d0 + d0 * d1 + d1 * d1);
       this.Fc[i] = fc;
       this.Dc[i] = Math.sqrt((4 * fc) / Math.PI);
+      this.iFc[i] = 1 / fc;
+      this.iDc[i] = 1 / this.Dc[i]!;
       this.dlnF[i] = (this.Ff[i + 1]! - this.Ff[i]!) / (this.dx * fc);
     }
     this.m = new Float64Array(N);
@@ -150,15 +177,13 @@ export class ConservativeScheme implements PipeScheme {
     this.r = new Float64Array(N);
     this.u = new Float64Array(N);
     this.p = new Float64Array(N);
+    this.a = new Float64Array(N);
     this.rL = new Float64Array(N);
     this.uL = new Float64Array(N);
     this.pL = new Float64Array(N);
     this.rR = new Float64Array(N);
     this.uR = new Float64Array(N);
     this.pR = new Float64Array(N);
-    this.g0 = new Float64Array(N + 1);
-    this.g1 = new Float64Array(N + 1);
-    this.g2 = new Float64Array(N + 1);
     this.fill(P_REF, 0, 293.15);
   }
 
@@ -173,6 +198,7 @@ export class ConservativeScheme implements PipeScheme {
     let pe: number;
     if (side === 'left') {
       this.predictCell(0, dt);
+      this.endDt[0] = dt;
       rho = this.rL[0]!;
       w = -this.uL[0]!;
       pe = this.pL[0]!;
@@ -180,6 +206,7 @@ export class ConservativeScheme implements PipeScheme {
     } else {
       const i = this.cells - 1;
       this.predictCell(i, dt);
+      this.endDt[1] = dt;
       rho = this.rR[i]!;
       w = this.uR[i]!;
       pe = this.pR[i]!;
@@ -193,56 +220,179 @@ export class ConservativeScheme implements PipeScheme {
 
   step(dt: number, left: EndState, right: EndState): void {
     const N = this.cells;
-    const { Ff, Fc, m, mo, en, rL, uL, pL, rR, uR, pR, g0, g1, g2 } = this;
-    for (let i = 0; i < N; i++) this.predictCell(i, dt);
+    const { Ff, Fc, m, mo, en, rL, uL, pL, rR, uR, pR } = this;
+    // the end cells' predictor was done by `incoming` for this dt (the same numbers); the rest in one pass
+    if (this.endDt[0] !== dt) this.predictCell(0, dt);
+    if (N > 1 && this.endDt[1] !== dt) this.predictCell(N - 1, dt);
+    this.endDt[0] = 0;
+    this.endDt[1] = 0;
+    this.predictInterior(dt);
 
-    // interior faces
-    for (let j = 1; j < N; j++) {
-      this.hllc(j);
-      const F = Ff[j]!;
-      g0[j] = this.h0 * F;
-      g1[j] = this.h1 * F;
-      g2[j] = this.h2 * F;
-    }
-    // end faces from the boundaries' end states (outward → x-directed)
-    g0[0] = -left.massFlow;
-    g1[0] = left.massFlow * left.velocity + left.pressure * Ff[0]!;
-    g2[0] = -left.enthalpyFlow;
-    g0[N] = right.massFlow;
-    g1[N] = right.massFlow * right.velocity + right.pressure * Ff[N]!;
-    g2[N] = right.enthalpyFlow;
+    // end face states for sampling and the next step's ghost values
+    const rl0 = this.faceR[0]!;
+    const ul0 = this.faceU[0]!;
+    const pl0 = this.faceP[0]!;
+    const rr0 = this.faceR[1]!;
+    const ur0 = this.faceU[1]!;
+    const pr0 = this.faceP[1]!;
+    this.setFace(0, left.pressure, -left.velocity, left.entropy);
+    this.setFace(1, right.pressure, right.velocity, right.entropy);
+    if (this.dtLast > 0) {
+      // the end states belong to mid-step: carry them on to the start of the
+      // next step along their trend over the last two steps
+      const w = dt / (this.dtLast + dt);
+      this.ghostR[0] = this.faceR[0]! + w * (this.faceR[0]! - rl0);
+      this.ghostU[0] = this.faceU[0]! + w * (this.faceU[0]! - ul0);
+      this.ghostP[0] = this.faceP[0]! + w * (this.faceP[0]! - pl0);
+      this.ghostR[1] = this.faceR[1]! + w * (this.faceR[1]! - rr0);
+      this.ghostU[1] = this.faceU[1]! + w * (this.faceU[1]! - ur0);
+      this.ghostP[1] = this.faceP[1]! + w * (this.faceP[1]! - pr0);
+    } else this.holdGhosts();
+    this.dtLast = dt;
 
+    // one pass over the faces: the flux of face j completes cell j − 1, which
+    // is updated at once (conserved variables, primitives, sound speed, CFL
+    // speed). Face j reads the cached sound speeds of cells j − 1 and j before
+    // cell j − 1 is updated.
     const k = dt / this.dx;
     const fr = this.friction;
-    for (let i = 0; i < N; i++) {
-      // evolved cell-centre state (t + dt/2)
+    const heat = this.heat;
+    const wallT = this.wallT;
+    const { iFc, iDc, r, u, p, a } = this;
+    // face 0 from the left boundary's end state (outward → x-directed)
+    let f0 = -left.massFlow;
+    let f1 = left.massFlow * left.velocity + left.pressure * Ff[0]!;
+    let f2 = -left.enthalpyFlow;
+    let smax = 0;
+    for (let j = 1; j <= N; j++) {
+      let n0: number, n1: number, n2: number;
+      if (j < N) {
+        // HLLC flux per unit area (Toro 2009 §10.4) between the right face
+        // value of cell j − 1 and the left face value of cell j
+        let h0 = 0;
+        let h1 = 0;
+        let h2 = 0;
+        face: {
+          const rl = rR[j - 1]!;
+          const ul = uR[j - 1]!;
+          const pl = pR[j - 1]!;
+          const rr = rL[j]!;
+          const ur = uL[j]!;
+          const pr = pL[j]!;
+          // sound speeds for the wave-speed estimates: those of the two cells (cached
+          // by updatePrimitives; the evolved face values differ by O(dx), and the
+          // estimates need bounds, not exact speeds — Toro 2009 §10.5)
+          const al = a[j - 1]!;
+          const ar = a[j]!;
+          // pressure-based wave speeds (Toro 2009 eqs. 10.59–10.62)
+          const ppv = 0.5 * (pl + pr) - 0.125 * (ur - ul) * (rl + rr) * (al + ar);
+          const ps = ppv > 0 ? ppv : 0;
+          const ql = ps <= pl ? 1 : Math.sqrt(1 + GQ * (ps / pl - 1));
+          const qr = ps <= pr ? 1 : Math.sqrt(1 + GQ * (ps / pr - 1));
+          const sl = ul - al * ql;
+          const sr = ur + ar * qr;
+          if (sl >= 0) {
+            const El = pl * IGM1 + 0.5 * rl * ul * ul;
+            h0 = rl * ul;
+            h1 = rl * ul * ul + pl;
+            h2 = (El + pl) * ul;
+            break face;
+          }
+          if (sr <= 0) {
+            const Er = pr * IGM1 + 0.5 * rr * ur * ur;
+            h0 = rr * ur;
+            h1 = rr * ur * ur + pr;
+            h2 = (Er + pr) * ur;
+            break face;
+          }
+          const ml = rl * (sl - ul);
+          const mr = rr * (sr - ur);
+          const ss = (pr - pl + ul * ml - ur * mr) / (ml - mr);
+          if (ss >= 0) {
+            // F*L = FL + SL·(U*L − UL), U*L from Toro eq. 10.39, with c·pL/(SL − uL) = pL/(SL − S*)
+            const El = pl * IGM1 + 0.5 * rl * ul * ul;
+            const is = 1 / (sl - ss);
+            const c = (sl - ul) * is;
+            const u0 = rl * c;
+            const u1 = u0 * ss;
+            const u2 = c * El + (ss - ul) * (u0 * ss + pl * is);
+            h0 = rl * ul + sl * (u0 - rl);
+            h1 = rl * ul * ul + pl + sl * (u1 - rl * ul);
+            h2 = (El + pl) * ul + sl * (u2 - El);
+          } else {
+            const Er = pr * IGM1 + 0.5 * rr * ur * ur;
+            const is = 1 / (sr - ss);
+            const c = (sr - ur) * is;
+            const u0 = rr * c;
+            const u1 = u0 * ss;
+            const u2 = c * Er + (ss - ur) * (u0 * ss + pr * is);
+            h0 = rr * ur + sr * (u0 - rr);
+            h1 = rr * ur * ur + pr + sr * (u1 - rr * ur);
+            h2 = (Er + pr) * ur + sr * (u2 - Er);
+          }
+        }
+        const F = Ff[j]!;
+        n0 = h0 * F;
+        n1 = h1 * F;
+        n2 = h2 * F;
+      } else {
+        n0 = right.massFlow;
+        n1 = right.massFlow * right.velocity + right.pressure * Ff[N]!;
+        n2 = right.enthalpyFlow;
+      }
+      const i = j - 1;
+      // evolved cell-centre pressure (t + dt/2)
       const ph = 0.5 * (pL[i]! + pR[i]!);
-      const fA = Ff[i]!;
-      const fB = Ff[i + 1]!;
-      m[i] = m[i]! - k * (g0[i + 1]! - g0[i]!);
+      const mi = m[i]! - k * (n0 - f0);
       // the pressure–area source grouped with the flux so that rest is kept exactly
-      mo[i] = mo[i]! - k * (g1[i + 1]! - ph * fB - (g1[i]! - ph * fA));
-      en[i] = en[i]! - k * (g2[i + 1]! - g2[i]!);
+      let moi = mo[i]! - k * (n1 - ph * Ff[j]! - (f1 - ph * Ff[i]!));
+      let eni = en[i]! - k * (n2 - f2);
       if (fr > 0) {
         const rh = 0.5 * (rL[i]! + rR[i]!);
         const uh = 0.5 * (uL[i]! + uR[i]!);
         const au = Math.abs(uh);
-        const D = this.Dc[i]!;
+        const iD = iDc[i]!;
         const F = Fc[i]!;
         // Φ = τ·4/D, τ = f·ρu|u|/2
-        mo[i] = mo[i]! - dt * ((2 * fr * rh * uh * au) / D) * F;
-        if (this.heat) {
+        moi -= dt * (2 * fr * rh * uh * au * iD) * F;
+        if (heat) {
           const Th = ph / (rh * R_AIR);
-          const h = 0.5 * fr * rh * au * CP;
-          en[i] = en[i]! + dt * ((h * (this.wallT - Th) * 4) / D) * F;
+          const hc = 0.5 * fr * rh * au * CP;
+          eni += dt * (hc * (wallT - Th) * 4 * iD) * F;
         }
       }
+      m[i] = mi;
+      mo[i] = moi;
+      en[i] = eni;
+      // primitives (as updatePrimitives)
+      const im = 1 / mi;
+      const rho = mi * iFc[i]!;
+      const ui = moi * im;
+      const pi = GM1 * (eni * iFc[i]! - 0.5 * rho * ui * ui);
+      r[i] = rho;
+      u[i] = ui;
+      p[i] = pi;
+      const ai = Math.sqrt(GAMMA * pi * Fc[i]! * im);
+      a[i] = ai;
+      const sp = Math.abs(ui) + ai;
+      if (sp > smax) smax = sp;
+      f0 = n0;
+      f1 = n1;
+      f2 = n2;
     }
+    this.waveSpeed = smax;
+  }
 
-    // end face states for sampling and the next step's ghost values
-    this.setFace(0, left.pressure, -left.velocity, left.entropy);
-    this.setFace(1, right.pressure, right.velocity, right.entropy);
-    this.updatePrimitives();
+  /** ghost values = the present end face states, no trend (after a state was set) */
+  private holdGhosts(): void {
+    this.endDt[0] = 0;
+    this.endDt[1] = 0;
+    for (let s = 0; s < 2; s++) {
+      this.ghostR[s] = this.faceR[s]!;
+      this.ghostU[s] = this.faceU[s]!;
+      this.ghostP[s] = this.faceP[s]!;
+    }
+    this.dtLast = 0;
   }
 
   mass(): number {
@@ -302,6 +452,7 @@ export class ConservativeScheme implements PipeScheme {
       this.faceU[s] = velocity;
       this.faceP[s] = pressure;
     }
+    this.holdGhosts();
     this.updatePrimitives();
   }
 
@@ -323,6 +474,7 @@ export class ConservativeScheme implements PipeScheme {
     this.faceR[1] = p[N]! / (R_AIR * T[N]!);
     this.faceU[1] = u[N]!;
     this.faceP[1] = p[N]!;
+    this.holdGhosts();
     this.updatePrimitives();
   }
 
@@ -356,6 +508,7 @@ export class ConservativeScheme implements PipeScheme {
     this.faceR[1] = s1.pressure / (R_AIR * s1.temperature);
     this.faceU[1] = s1.velocity;
     this.faceP[1] = s1.pressure;
+    this.holdGhosts();
     this.updatePrimitives();
   }
 
@@ -373,6 +526,7 @@ export class ConservativeScheme implements PipeScheme {
     this.faceR[1] = rho[N - 1]!;
     this.faceU[1] = u[N - 1]!;
     this.faceP[1] = p[N - 1]!;
+    this.holdGhosts();
     this.updatePrimitives();
   }
 
@@ -387,7 +541,7 @@ export class ConservativeScheme implements PipeScheme {
     const F = this.Fc[i]!;
     this.m[i] = rho * F;
     this.mo[i] = rho * u * F;
-    this.en[i] = (p / GM1 + 0.5 * rho * u * u) * F;
+    this.en[i] = (p * IGM1 + 0.5 * rho * u * u) * F;
   }
 
   private setFace(s: number, pressure: number, xVelocity: number, entropy: number): void {
@@ -402,21 +556,100 @@ export class ConservativeScheme implements PipeScheme {
     }
   }
 
-  /** primitives from the conserved variables, and the largest wave speed |u| + a for the next CFL step */
+  /** primitives from the conserved variables, their sound speeds, and the largest wave speed |u| + a for the next CFL step */
   private updatePrimitives(): void {
     let smax = 0;
+    const { m, mo, en, iFc, Fc, r, u, p, a } = this;
     for (let i = 0; i < this.cells; i++) {
-      const F = this.Fc[i]!;
-      const rho = this.m[i]! / F;
-      const u = this.mo[i]! / this.m[i]!;
-      const p = GM1 * (this.en[i]! / F - 0.5 * rho * u * u);
-      this.r[i] = rho;
-      this.u[i] = u;
-      this.p[i] = p;
-      const sp = Math.abs(u) + Math.sqrt((GAMMA * p) / rho);
+      const mi = m[i]!;
+      const im = 1 / mi;
+      const rho = mi * iFc[i]!;
+      const ui = mo[i]! * im;
+      const pi = GM1 * (en[i]! * iFc[i]! - 0.5 * rho * ui * ui);
+      r[i] = rho;
+      u[i] = ui;
+      p[i] = pi;
+      // a = √(γp/ρ), 1/ρ = Fc/m
+      const ai = Math.sqrt(GAMMA * pi * Fc[i]! * im);
+      a[i] = ai;
+      const sp = Math.abs(ui) + ai;
       if (sp > smax) smax = sp;
     }
     this.waveSpeed = smax;
+  }
+
+  /**
+   * The MUSCL–Hancock predictor of the interior cells 1..N−2 in one pass
+   * (the same arithmetic as predictCell, with the neighbours read directly).
+   */
+  private predictInterior(dt: number): void {
+    const N = this.cells;
+    const { r, u, p, dlnF, iDc, rL, uL, pL, rR, uR, pR } = this;
+    const h = 0.5 * dt;
+    const c = (0.5 * dt) / this.dx;
+    const fr = this.friction;
+    const heat = this.heat;
+    const wallT = this.wallT;
+    for (let i = 1; i < N - 1; i++) {
+      const ri = r[i]!;
+      const ui = u[i]!;
+      const pi = p[i]!;
+      // van Leer slopes 2·a·b/(a + b) of ρ, u, p with one division for the three
+      const ar = ri - r[i - 1]!;
+      const br = r[i + 1]! - ri;
+      const au0 = ui - u[i - 1]!;
+      const bu = u[i + 1]! - ui;
+      const ap = pi - p[i - 1]!;
+      const bp = p[i + 1]! - pi;
+      const qr = ar * br;
+      const qu = au0 * bu;
+      const qp = ap * bp;
+      const sr0 = qr > 0 ? ar + br : 1;
+      const su0 = qu > 0 ? au0 + bu : 1;
+      const sp0 = qp > 0 ? ap + bp : 1;
+      // 1/ρ rides on the same division
+      const inv = 1 / (sr0 * su0 * sp0 * ri);
+      const ir = sr0 * su0 * sp0 * inv;
+      let dr = qr > 0 ? 2 * qr * su0 * sp0 * ri * inv : 0;
+      let du = qu > 0 ? 2 * qu * sr0 * sp0 * ri * inv : 0;
+      let dp = qp > 0 ? 2 * qp * sr0 * su0 * ri * inv : 0;
+      const k = dlnF[i]!;
+      let sr = -ri * ui * k;
+      let su = 0;
+      let sp = -GAMMA * pi * ui * k;
+      if (fr > 0) {
+        const au = Math.abs(ui);
+        const phi = 2 * fr * ri * ui * au * iDc[i]!;
+        su = -phi * ir;
+        let q = 0;
+        if (heat) q = 0.5 * fr * ri * au * CP * (wallT - pi * ir * (1 / R_AIR)) * 4 * iDc[i]!;
+        sp += GM1 * (q + phi * ui);
+      }
+      sr *= h;
+      su *= h;
+      sp *= h;
+      for (let pass = 0; pass < 2; pass++) {
+        const er = -c * (ui * dr + ri * du) + sr;
+        const eu = -c * (ui * du + dp * ir) + su;
+        const ep = -c * (GAMMA * pi * du + ui * dp) + sp;
+        const rl = ri - 0.5 * dr + er;
+        const rrr = ri + 0.5 * dr + er;
+        const pl = pi - 0.5 * dp + ep;
+        const prr = pi + 0.5 * dp + ep;
+        if ((rl > 0 && rrr > 0 && pl > 0 && prr > 0) || pass === 1) {
+          rL[i] = rl;
+          rR[i] = rrr;
+          uL[i] = ui - 0.5 * du + eu;
+          uR[i] = ui + 0.5 * du + eu;
+          pL[i] = pl;
+          pR[i] = prr;
+          break;
+        }
+        dr = 0;
+        du = 0;
+        dp = 0;
+      }
+    }
   }
 
   /**
@@ -436,18 +669,18 @@ export class ConservativeScheme implements PipeScheme {
       um = this.u[i - 1]!;
       pm = this.p[i - 1]!;
     } else {
-      rm = 2 * this.faceR[0]! - r;
-      um = 2 * this.faceU[0]! - u;
-      pm = 2 * this.faceP[0]! - p;
+      rm = 2 * this.ghostR[0]! - r;
+      um = 2 * this.ghostU[0]! - u;
+      pm = 2 * this.ghostP[0]! - p;
     }
     if (i < N - 1) {
       rp = this.r[i + 1]!;
       up = this.u[i + 1]!;
       pp = this.p[i + 1]!;
     } else {
-      rp = 2 * this.faceR[1]! - r;
-      up = 2 * this.faceU[1]! - u;
-      pp = 2 * this.faceP[1]! - p;
+      rp = 2 * this.ghostR[1]! - r;
+      up = 2 * this.ghostU[1]! - u;
+      pp = 2 * this.ghostP[1]! - p;
     }
     let dr = vanLeer(r - rm, rp - r);
     let du = vanLeer(u - um, up - u);
@@ -461,13 +694,11 @@ export class ConservativeScheme implements PipeScheme {
     let sp = -GAMMA * p * u * k;
     if (this.friction > 0) {
       const au = Math.abs(u);
-      const D = this.Dc[i]!;
-      const phi = (2 * this.friction * r * u * au) / D;
+      const iD = this.iDc[i]!;
+      const phi = 2 * this.friction * r * u * au * iD;
       su = -phi / r;
       let q = 0;
-      if (this.heat) {
-        q = (0.5 * this.friction * r * au * CP * (this.wallT - p / (r * R_AIR)) * 4) / D;
-      }
+      if (this.heat) q = 0.5 * this.friction * r * au * CP * (this.wallT - p / (r * R_AIR)) * 4 * iD;
       sp += GM1 * (q + phi * u);
     }
     sr *= h;
@@ -475,10 +706,11 @@ export class ConservativeScheme implements PipeScheme {
     sp *= h;
 
     const c = (0.5 * dt) / this.dx;
+    const ir = 1 / r;
     for (let pass = 0; pass < 2; pass++) {
       // δ = −(dt/2dx)·A(W)·Δ + (dt/2)·S(W), the same for both faces
       const er = -c * (u * dr + r * du) + sr;
-      const eu = -c * (u * du + dp / r) + su;
+      const eu = -c * (u * du + dp * ir) + su;
       const ep = -c * (GAMMA * p * du + u * dp) + sp;
       const rl = r - 0.5 * dr + er;
       const rrr = r + 0.5 * dr + er;
@@ -499,64 +731,6 @@ export class ConservativeScheme implements PipeScheme {
     }
   }
 
-  /**
-   * HLLC flux per unit area (Toro 2009 §10.4) at interior face j, between the
-   * right face value of cell j−1 and the left face value of cell j, into
-   * h0, h1, h2. It takes the face index, not the six states, so a call that
-   * is not inlined boxes no doubles (no allocation per face).
-   */
-  private hllc(j: number): void {
-    const rl = this.rR[j - 1]!;
-    const ul = this.uR[j - 1]!;
-    const pl = this.pR[j - 1]!;
-    const rr = this.rL[j]!;
-    const ur = this.uL[j]!;
-    const pr = this.pL[j]!;
-    const al = Math.sqrt((GAMMA * pl) / rl);
-    const ar = Math.sqrt((GAMMA * pr) / rr);
-    // pressure-based wave speeds (Toro 2009 eqs. 10.59–10.62)
-    const ppv = 0.5 * (pl + pr) - 0.125 * (ur - ul) * (rl + rr) * (al + ar);
-    const ps = ppv > 0 ? ppv : 0;
-    const ql = ps <= pl ? 1 : Math.sqrt(1 + GQ * (ps / pl - 1));
-    const qr = ps <= pr ? 1 : Math.sqrt(1 + GQ * (ps / pr - 1));
-    const sl = ul - al * ql;
-    const sr = ur + ar * qr;
-    const El = pl / GM1 + 0.5 * rl * ul * ul;
-    const Er = pr / GM1 + 0.5 * rr * ur * ur;
-    if (sl >= 0) {
-      this.h0 = rl * ul;
-      this.h1 = rl * ul * ul + pl;
-      this.h2 = (El + pl) * ul;
-      return;
-    }
-    if (sr <= 0) {
-      this.h0 = rr * ur;
-      this.h1 = rr * ur * ur + pr;
-      this.h2 = (Er + pr) * ur;
-      return;
-    }
-    const ml = rl * (sl - ul);
-    const mr = rr * (sr - ur);
-    const ss = (pr - pl + ul * ml - ur * mr) / (ml - mr);
-    if (ss >= 0) {
-      // F*L = FL + SL·(U*L − UL), U*L from Toro eq. 10.39
-      const c = (sl - ul) / (sl - ss);
-      const u0 = rl * c;
-      const u1 = u0 * ss;
-      const u2 = c * (El + (ss - ul) * (rl * ss + pl / (sl - ul)));
-      this.h0 = rl * ul + sl * (u0 - rl);
-      this.h1 = rl * ul * ul + pl + sl * (u1 - rl * ul);
-      this.h2 = (El + pl) * ul + sl * (u2 - El);
-    } else {
-      const c = (sr - ur) / (sr - ss);
-      const u0 = rr * c;
-      const u1 = u0 * ss;
-      const u2 = c * (Er + (ss - ur) * (rr * ss + pr / (sr - ur)));
-      this.h0 = rr * ur + sr * (u0 - rr);
-      this.h1 = rr * ur * ur + pr + sr * (u1 - rr * ur);
-      this.h2 = (Er + pr) * ur + sr * (u2 - Er);
-    }
-  }
 }
 
 /** The conservative finite-volume scheme on `mesh` (see the file header). */
