@@ -26,11 +26,13 @@ const LEAVE_ALT = '\u001b[?1049l';
 /** start the view on a pseudo-terminal, wait for its first frame, send `signal` to it, resolve with its exit code and output */
 function viewUntilSignal(signal: NodeJS.Signals): Promise<{ code: number | null; out: string }> {
   return new Promise((resolve, reject) => {
-    const cmd = `"${process.execPath}" --import tsx src/cli/main.ts cases/demo.yaml --allow-long`;
+    // `exec`: whatever shell `script` starts (bash, or dash when SHELL is unset as on a build machine) is replaced by the view,
+    // so the signal below reaches the view and not a shell waiting on it (dash defers SIGINT until its child ends)
+    const cmd = `exec "${process.execPath}" --import tsx src/cli/main.ts cases/demo.yaml --allow-long`;
     const child = spawn('script', ['-qfec', cmd, '/dev/null'], {
       cwd: ROOT,
       // CI set as on a build machine: the view must still draw its frames (Ink alone would hold them back)
-      env: { ...process.env, TERM: 'xterm-256color', COLUMNS: '80', LINES: '24', NO_COLOR: '1', CI: 'true' },
+      env: { ...process.env, SHELL: '/bin/sh', TERM: 'xterm-256color', COLUMNS: '80', LINES: '24', NO_COLOR: '1', CI: 'true' },
       stdio: ['pipe', 'pipe', 'pipe'],
     });
     let out = '';
@@ -40,9 +42,10 @@ function viewUntilSignal(signal: NodeJS.Signals): Promise<{ code: number | null;
       // the first frame is drawn: signal the view itself (the child of `script`)
       if (!sent && out.includes('IVC')) {
         sent = true;
-        const line = execFileSync('ps', ['-o', 'pid=', '--ppid', String(child.pid)], { encoding: 'utf8' }).trim().split('\n')[0];
-        const pid = Number(line?.trim());
-        if (!(pid > 0)) reject(new Error(`no view process under script (${line})`));
+        const rows = execFileSync('ps', ['-o', 'pid=,args=', '--ppid', String(child.pid)], { encoding: 'utf8' }).trim().split('\n');
+        const line = rows.find((r) => r.includes('src/cli/main.ts'));
+        const pid = Number(line?.trim().split(/\s+/)[0]);
+        if (!(pid > 0) || line?.includes(' -c ')) reject(new Error(`no view process directly under script (${rows.join(' | ')})`));
         else process.kill(pid, signal);
       }
     });
