@@ -27,18 +27,26 @@ export interface UiOptions {
   allowLong?: boolean;
 }
 
+/** set to true by the bundle (scripts/bundle.mjs), which carries the fix of Ink's line-by-line renderer (scripts/ink-line-fix.mjs) */
+declare const __TRACTWAVE_INK_LINE_FIX__: boolean | undefined;
+
+/** whether this build's Ink draws line by line correctly: the bundle only (Ink 6.8.0 as installed draws each frame a row low) */
+export const INK_LINE_FIX = typeof __TRACTWAVE_INK_LINE_FIX__ !== 'undefined' && __TRACTWAVE_INK_LINE_FIX__ === true;
+
 /**
  * How the view draws (Ink's render options; bench/pool.ts measures with these).
  * Over SSH every byte counts: with `incrementalRendering` Ink rewrites only
  * the lines that changed since the last frame instead of erasing and
  * writing the whole screen; playing the cycle changes a few columns of most
  * chart rows, so this roughly halves the bytes per frame (bench/RESULTS.md).
+ * Only where Ink's renderer carries our fix (the bundle, which `tractwave`
+ * runs); from the sources the view redraws whole frames.
  */
 export const VIEW_RENDER_OPTIONS = {
   exitOnCtrlC: false, // ctrl+c is a key like q: the app leaves cleanly
   patchConsole: true,
   maxFps: 30,
-  incrementalRendering: true,
+  incrementalRendering: INK_LINE_FIX,
 } as const;
 
 /**
