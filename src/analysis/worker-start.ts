@@ -9,14 +9,14 @@
  *     registers tsx's ESM loader in the worker and imports the .ts module
  *     (slower: every worker transforms the sources again);
  *   - compiled (dist/…/*.js): new Worker(dist/<module>.js);
- *   - single-file bundle (dist/tractwave.mjs): every module shares the
- *     bundle's import.meta.url. The build leaves a worker-only bundle beside
- *     it (WORKER_BUNDLES), which starts fastest, and the compiled module
- *     (dist/<module>.js) from its tsc step; failing both, the worker
- *     imports the main bundle itself through an eval bootstrap, so the
- *     worker's process.argv[1] is '[worker eval]' and the bundle's "am I the
- *     entry script?" check stays false; the bundled-in worker module acts on
- *     its workerData flag.
+ *   - bundle (dist/tractwave.mjs and the chunks it loads, all in dist/):
+ *     a module's import.meta.url is that of its file in dist/. The build
+ *     leaves a worker-only bundle there (WORKER_BUNDLES), which starts
+ *     fastest, and the compiled module (dist/<module>.js) from its tsc
+ *     step; failing both, the worker imports the file this code sits in
+ *     through an eval bootstrap, so the worker's process.argv[1] is
+ *     '[worker eval]' and the "am I the entry script?" check stays false;
+ *     the bundled-in worker module acts on its workerData flag.
  */
 import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
