@@ -35,7 +35,7 @@ import { extendedSections, type Pipe } from './network/pipe.js';
 import { Chamber, CylinderVolume } from './network/volumes.js';
 import { OpenConnector } from './network/connectors/open.js';
 import { RestrictedConnector } from './network/connectors/restricted.js';
-import type { EngineModel, PipeMap, PipeRole, PointResult, RunnerSection, ValveEvents } from './model.js';
+import type { CycleTrace, EngineModel, PipeMap, PipeRole, PointResult, RunnerSection, ValveEvents } from './model.js';
 import type { StepContext } from './network/types.js';
 
 export { SimulationError };
@@ -505,17 +505,8 @@ class CycleRun {
   }
 }
 
-interface Traces {
-  valvePressure: Float64Array;
-  valveFlow: Float64Array;
-  cylinderPressure: Float64Array;
-  cylinderMass: Float64Array;
-  lift: Float64Array;
-  exhaustLift: Float64Array;
-  inletFlow: Float64Array;
-  plenumPressure: Float64Array;
-  exhaustPortPressure: Float64Array;
-}
+/** the per-degree traces being filled: a cycle trace without its crank column */
+type Traces = Omit<CycleTrace, 'crank'>;
 
 interface MapOf {
   probe: MapProbe;

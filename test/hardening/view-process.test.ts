@@ -10,16 +10,9 @@ import { describe, expect, it } from 'vitest';
 import { execFileSync, spawn } from 'node:child_process';
 import { runCli } from '../../src/cli/main.js';
 import { memoryIo } from '../../src/cli/io.js';
+import { HAS_SCRIPT } from '../support/has-script.js';
 import { ROOT } from './cli.js';
 
-const HAS_SCRIPT = (() => {
-  try {
-    execFileSync('script', ['--version'], { stdio: 'ignore' });
-    return true;
-  } catch {
-    return false;
-  }
-})();
 
 const LEAVE_ALT = '\u001b[?1049l';
 

@@ -10,21 +10,14 @@
  * (scripts/ink-line-fix.mjs); this test is what catches that.
  */
 import { describe, expect, it } from 'vitest';
-import { execFileSync, spawn } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Terminal } from '@xterm/headless';
+import { HAS_SCRIPT } from '../support/has-script.js';
 import { ROOT } from '../hardening/cli.js';
 import { fixInkLogUpdate, INK_LINE_FAULT, INK_LINE_FIXED } from '../../scripts/ink-line-fix.mjs';
 
-const HAS_SCRIPT = (() => {
-  try {
-    execFileSync('script', ['--version'], { stdio: 'ignore' });
-    return true;
-  } catch {
-    return false;
-  }
-})();
 const BUNDLE = join(ROOT, 'dist', 'tractwave.mjs');
 const COLS = 80;
 const ROWS = 24;
