@@ -295,7 +295,7 @@ function Screen(p: { state: UiState; session: CaseSession; size: TerminalSize; c
         pins={s.pins.map((p, k) => ({
           name: `pin ${pinLetter(k)}`,
           eta: p.result.volumetricEfficiency,
-          differs: whatDiffers(s.fields, s.values, p.values),
+          differs: whatDiffers(s.fields, s.values, p.values, s.units),
           compared: s.compare === k + 1,
         }))}
         canUndo={s.history.length > 0}

@@ -4,7 +4,7 @@
  * baseline run, the latest result in numbers, and the save prompt. Pure.
  */
 import type { FieldDef } from './fields.js';
-import { formatField } from './fields.js';
+import { fieldIn, formatField } from './fields.js';
 import { etaPct, etaPoints, firstFit, fit, joinFit, wrapWords } from './text.js';
 import { METRIC, type Units } from '../present/units.js';
 import { fixed } from '../present/number.js';
@@ -35,7 +35,7 @@ export interface CaseScreenInput {
   /** an edit can be taken back (ctrl+z) */
   canUndo?: boolean | undefined;
   save?: { stage: 'typing' | 'checking' | 'confirm' | 'saving'; path: string; kind?: 'case' | 'report' } | undefined;
-  /** display units of the results (the u key); the values keep the units they are typed in */
+  /** display units (the u key): of the results, and of the values, which are typed in them too */
   units?: Units | undefined;
 }
 
@@ -56,7 +56,8 @@ export function caseScreen(i: CaseScreenInput): string[] {
   const title = firstFit([`Case: ${i.name}  (${where(shownFile)})`, `Case: ${i.name}  (${where(base(shownFile))})`, `Case: ${i.name}`], w);
   const cursorAt = (text: string): string => withCursor({ text, cursor: i.cursor ?? text.length });
   const labelW = Math.max(...i.fields.map((f) => f.label.length), 10);
-  const sel = i.fields[i.selected];
+  const system = i.units?.system ?? 'metric';
+  const sel = i.fields[i.selected] ? fieldIn(i.fields[i.selected]!, system).def : undefined;
 
   const below: string[] = [fit('', w)];
   if (i.save) {
@@ -73,7 +74,7 @@ export function caseScreen(i: CaseScreenInput): string[] {
             : `Saving to ${i.save.path} …`;
     below.push(...wrapWords(prompt, w, 2));
   } else if (i.editing !== undefined && sel) {
-    below.push(...wrapWords(`Type the new ${sel.label.toLowerCase()} in ${sel.unit}; enter runs it, esc keeps the old value; ← → ctrl+a/e move, ctrl+u clears.`, w, 2));
+    below.push(...wrapWords(`Type the new ${sel.label.toLowerCase()}${sel.unit.trim() ? ` (${sel.unit.trim()})` : ''}; enter runs it, esc keeps the old value; ← → ctrl+a/e move, ctrl+u clears.`, w, 2));
   } else if (sel) {
     below.push(...wrapWords(`${sel.label}: ${sel.hint}.  enter types a value, , and . step it${i.canUndo ? ', ctrl+z undoes' : ''}, w saves, r writes a report.`, w, 2));
   }
@@ -109,13 +110,16 @@ export function caseScreen(i: CaseScreenInput): string[] {
   const shown = i.fields.slice(first, first + room);
   const rows = shown.map((f, k) => {
     const index = first + k;
-    const v = i.values[f.path];
+    const view = fieldIn(f, system);
+    const kept = i.values[f.path];
+    const v = kept !== undefined ? view.toShown(kept) : undefined;
     const isSel = index === i.selected;
-    const value = isSel && i.editing !== undefined ? cursorAt(i.editing) : v !== undefined ? formatField(f, v) : '—';
-    const was = i.baseValues?.[f.path];
-    const change = was !== undefined && v !== undefined && formatField(f, was) !== formatField(f, v) ? `(baseline ${formatField(f, was)})` : '';
+    const value = isSel && i.editing !== undefined ? cursorAt(i.editing) : v !== undefined ? formatField(view.def, v) : '—';
+    const keptWas = i.baseValues?.[f.path];
+    const was = keptWas !== undefined ? view.toShown(keptWas) : undefined;
+    const change = was !== undefined && v !== undefined && formatField(view.def, was) !== formatField(view.def, v) ? `(baseline ${formatField(view.def, was)})` : '';
     const more = k === 0 && first > 0 ? '↑' : k === shown.length - 1 && first + room < i.fields.length ? '↓' : ' ';
-    return fit(`${isSel ? '▶' : more} ${f.label.padEnd(labelW)}  ${value.padStart(9)} ${f.unit.padEnd(7)} ${change}`, w);
+    return fit(`${isSel ? '▶' : more} ${f.label.padEnd(labelW)}  ${value.padStart(9)} ${view.def.unit.padEnd(7)} ${change}`, w);
   });
   return padLines([title, ...rows, ...below], i.rows, w);
 }

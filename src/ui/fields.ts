@@ -5,6 +5,7 @@
  * unit conversion; the panel only shows and types numbers.
  */
 import { fixed } from '../present/number.js';
+import { NIST, type UnitSystem } from '../present/units.js';
 
 export interface FieldDef {
   /** case-file path, as for `--set` */
@@ -310,4 +311,53 @@ export function parseTyped(text: string): number | undefined {
   if (!/^[-+]?(\d+(\.\d*)?|\.\d+)$/.test(t)) return undefined;
   const v = Number(t);
   return Number.isFinite(v) ? v : undefined;
+}
+
+/**
+ * A field as the user sees it in a unit system: its unit, decimals and step
+ * there, and the conversions between the value kept (the field's own,
+ * metric unit, which the override is written in) and the value shown.
+ * Imperial: mm → in, L → ci, kPa → psi, °C → °F (NIST SP 811 factors,
+ * present/units.ts); every other field, and every field in metric, as is.
+ */
+export interface FieldView {
+  def: FieldDef;
+  toShown: (kept: number) => number;
+  fromShown: (shown: number) => number;
+}
+
+/** [unitWord] → the imperial unit: its label, kept units per shown unit, offset (shown = kept / per + offset), extra decimals */
+const IMPERIAL_OF: Readonly<Record<string, { unit: string; per: number; offset: number; decimals: number }>> = {
+  mm: { unit: 'in', per: NIST.inch * 1000, offset: 0, decimals: 2 },
+  L: { unit: 'ci', per: NIST.cubicInch * 1000, offset: 0, decimals: -1 },
+  kPa: { unit: 'psi', per: NIST.psi / 1000, offset: 0, decimals: 1 },
+  degC: { unit: '°F', per: 5 / 9, offset: 32, decimals: 0 },
+};
+
+/** the 1–2–2.5–5 step nearest `x` (by ratio) */
+export function niceStep(x: number): number {
+  if (!(x > 0)) return x;
+  const k = Math.floor(Math.log10(x));
+  let best = x;
+  let bestRatio = Number.POSITIVE_INFINITY;
+  for (const m of [1, 2, 2.5, 5, 10]) {
+    const c = m * Math.pow(10, k);
+    const ratio = Math.max(c / x, x / c);
+    if (ratio < bestRatio) {
+      best = c;
+      bestRatio = ratio;
+    }
+  }
+  return best;
+}
+
+export function fieldIn(field: FieldDef, system: UnitSystem): FieldView {
+  const imp = system === 'imperial' ? IMPERIAL_OF[field.unitWord] : undefined;
+  if (!imp) return { def: field, toShown: (v) => v, fromShown: (x) => x };
+  const decimals = Math.max(0, field.decimals + imp.decimals);
+  return {
+    def: { ...field, unit: field.unit.replace(/^(mm|L|kPa|°C)/, imp.unit), step: roundTo(niceStep(field.step / imp.per), 6), decimals },
+    toShown: (v) => v / imp.per + imp.offset,
+    fromShown: (x) => (x - imp.offset) * imp.per,
+  };
 }

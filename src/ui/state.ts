@@ -5,7 +5,7 @@
  * reports back with actions such as `pointDone`.
  */
 import type { PointResult } from '../core/model.js';
-import { FIELDS, type FieldDef, fieldByPath, formatField, overrideText, parseTyped, roundTo } from './fields.js';
+import { FIELDS, type FieldDef, fieldByPath, fieldIn, formatField, overrideText, parseTyped, roundTo } from './fields.js';
 import { applyLineOp, insertText, type LineOp } from './line-edit.js';
 import { mod } from './chart.js';
 import { RPM_LIMITS } from '../case/schema.js';
@@ -308,15 +308,17 @@ function withEdit(edits: readonly Edit[], edit: Edit): Edit[] {
   return [...edits.filter((e) => e.path !== edit.path), edit];
 }
 
-function describeEdit(field: FieldDef, value: number): string {
-  return `${field.label.toLowerCase()} ${roundTo(value, field.decimals)} ${field.unit}`;
+/** "runner length 320 mm": a kept value in the display units of `system` */
+function describeEdit(field: FieldDef, value: number, system: UnitSystem): string {
+  const v = fieldIn(field, system);
+  return `${field.label.toLowerCase()} ${formatField(v.def, v.toShown(value))} ${v.def.unit}`.trimEnd();
 }
 
 /** Change one field (display units) and ask for a re-run. */
 function applyValue(s: UiState, field: FieldDef, value: number): UiState {
   const edits = withEdit(s.edits, { path: field.path, value: overrideText(field, value) });
   const history = [...s.history, { edits: s.edits, values: s.values }].slice(-MAX_UNDO);
-  return afterChange(s, { ...s, history, edits, values: { ...s.values, [field.path]: value } }, describeEdit(field, value));
+  return afterChange(s, { ...s, history, edits, values: { ...s.values, [field.path]: value } }, describeEdit(field, value, s.units));
 }
 
 /** Run the changed design; a design change (speed aside) re-runs a sweep that was run. */
@@ -354,7 +356,7 @@ function undo(s: UiState): UiState {
     }
   }
   if (!back) return { ...s, history: [], message: { text: 'Nothing to undo: this is the case as loaded or as first changed.', tone: 'info' } };
-  const undone = whatDiffers(s.fields, s.values, back.values);
+  const undone = whatDiffers(s.fields, s.values, back.values, s.units);
   const changed = afterChange(s, { ...s, history, edits: back.edits, values: { ...back.values } }, `undo (${undone})`);
   return { ...changed, message: { text: `Undone: back to ${undone}${history.length > 0 ? ` (${history.length} more ctrl+z)` : ''}.`, tone: 'info' } };
 }
@@ -363,14 +365,21 @@ function undo(s: UiState): UiState {
  * What `was` differs in from `now`, in the panel's words ("runner length
  * 600 mm, engine speed 5000 rpm"); the same design when nothing differs.
  */
-export function whatDiffers(fields: readonly FieldDef[], now: Readonly<Record<string, number>>, was: Readonly<Record<string, number>> | undefined, max = 3): string {
+export function whatDiffers(
+  fields: readonly FieldDef[],
+  now: Readonly<Record<string, number>>,
+  was: Readonly<Record<string, number>> | undefined,
+  system: UnitSystem = 'metric',
+  max = 3,
+): string {
   if (!was) return 'the same design';
   const parts: string[] = [];
   for (const f of fields) {
     const a = was[f.path];
     const b = now[f.path];
-    if (a === undefined || b === undefined || formatField(f, a) === formatField(f, b)) continue;
-    parts.push(`${f.label.toLowerCase()} ${formatField(f, a)} ${f.unit}`);
+    const v = fieldIn(f, system);
+    if (a === undefined || b === undefined || formatField(v.def, v.toShown(a)) === formatField(v.def, v.toShown(b))) continue;
+    parts.push(describeEdit(f, a, system));
   }
   if (parts.length === 0) return 'the same design';
   return parts.length > max ? `${parts.slice(0, max).join(', ')} (+${parts.length - max} more)` : parts.join(', ');
@@ -393,7 +402,7 @@ export function pinLetter(i: number): string {
 /** The label of a baseline against the present design: its name and what differed. */
 export function baselineLabel(s: UiState, b: PointShown | undefined = shownBaseline(s), name = baselineName(s)): string {
   if (!b) return '';
-  return `${name}: ${whatDiffers(s.fields, s.values, b.values)}`;
+  return `${name}: ${whatDiffers(s.fields, s.values, b.values, s.units)}`;
 }
 
 /** The design a sweep curve belongs to: its changes from the case file, speed aside. */
@@ -403,7 +412,7 @@ export function designLabel(s: UiState): string {
   const last = design[design.length - 1] as Edit;
   const f = fieldByPath(last.path, s.fields);
   const v = s.values[last.path];
-  const words = f && v !== undefined ? describeEdit(f, v) : `${last.path} ${last.value}`;
+  const words = f && v !== undefined ? describeEdit(f, v, s.units) : `${last.path} ${last.value}`;
   return design.length > 1 ? `${words} (+${design.length - 1} more)` : words;
 }
 
@@ -556,11 +565,15 @@ export function reduce(s: UiState, a: Action): UiState {
     case 'commitEdit': {
       const f = s.fields[s.selected];
       if (!f || s.editing === undefined) return s;
-      const v = parseTyped(s.editing);
-      if (v === undefined) {
-        return { ...s, message: { text: `${f.label}: type a plain number in ${f.unit}, got '${s.editing.trim()}'.`, tone: 'error' } };
+      const view = fieldIn(f, s.units);
+      const typed = parseTyped(s.editing);
+      if (typed === undefined) {
+        return { ...s, message: { text: `${f.label}: type a plain number${view.def.unit.trim() ? ` (${view.def.unit.trim()})` : ''}, got '${s.editing.trim()}'.`, tone: 'error' } };
       }
-      if (s.values[f.path] === v) return { ...s, editing: undefined };
+      // typed in the shown unit, kept in the field's own (the override's)
+      const v = view.fromShown(typed);
+      const was = s.values[f.path];
+      if (was !== undefined && formatField(view.def, view.toShown(was)) === formatField(view.def, typed)) return { ...s, editing: undefined };
       return applyValue(s, f, v);
     }
     case 'cancel': {
@@ -573,7 +586,9 @@ export function reduce(s: UiState, a: Action): UiState {
       const f = s.fields[s.selected];
       const v = f ? s.values[f.path] : undefined;
       if (!f || v === undefined) return s;
-      const next = roundTo(v + a.dir * f.step, f.decimals + 2);
+      // a step in the shown unit (0.5 in, not 12.7 mm), kept in the field's own
+      const view = fieldIn(f, s.units);
+      const next = view.fromShown(roundTo(view.toShown(v) + a.dir * view.def.step, view.def.decimals + 2));
       if (f.path === 'rpm') return applyValue(s, f, clampRpm(next));
       return applyValue(s, f, next);
     }
