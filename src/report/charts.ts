@@ -9,6 +9,7 @@
  * (van der Walt & Smith, matplotlib, 2015). Every axis title carries its unit.
  */
 import type { TopLevelSpec } from 'vega-lite';
+import type { PipeMap } from '../core/model.js';
 import type { OperatingPoint, ReportData } from './gather.js';
 import { fixed, type Units } from './units.js';
 
@@ -445,9 +446,12 @@ export function valveChart(p: OperatingPoint, u: Units, reference: number): Char
 export const MAP_DEGREES = 3;
 export const MAP_MAX_ROWS = 24;
 
-/** The runner's space–time map averaged into MAP_DEGREES-wide columns and at most MAP_MAX_ROWS positions. */
-export function mapCells(p: OperatingPoint): { crank: number; crank2: number; x: number; x2: number; pressure: number }[] {
-  const { x, pressure } = p.result.runnerMap;
+/** A pipe's space–time map (the runner's by default) averaged into MAP_DEGREES-wide columns and at most MAP_MAX_ROWS positions. */
+export function mapCells(
+  p: OperatingPoint,
+  map: { x: Float64Array; pressure: Float64Array } = p.result.runnerMap,
+): { crank: number; crank2: number; x: number; x2: number; pressure: number }[] {
+  const { x, pressure } = map;
   const nx = x.length;
   const rows = pressure.length / nx;
   const keep = Math.min(nx, MAP_MAX_ROWS);
@@ -474,7 +478,36 @@ export function mapCells(p: OperatingPoint): { crank: number; crank2: number; x:
 
 /** Pressure along the runner against crank angle (valve end at the top), as a heat map. */
 export function runnerMapChart(p: OperatingPoint, u: Units, upstream: 'ambient' | 'plenum'): ChartSpec {
-  const cells = mapCells(p).map((c) => ({
+  const end = upstream === 'plenum' ? 'plenum end' : 'open end';
+  return mapChart(p, u, mapCells(p), {
+    name: `runner-${fixed(p.rpm, 0)}rpm`,
+    title: `Pressure along the runner against crank angle at ${fixed(p.rpm, 0)} rpm`,
+    yTitle: `distance from the ${end} ${u.bracket('length')}`,
+  });
+}
+
+/** the chart name of a pipe's map other than the runner's: "pipe-snorkel-6500rpm" */
+export function pipeMapName(pipe: Pick<PipeMap, 'name'>, rpm: number): string {
+  const slug = pipe.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'pipe';
+  return `pipe-${slug}-${fixed(rpm, 0)}rpm`;
+}
+
+/** Pressure along another pipe of the case (snorkel, exhaust pipe, resonator) against crank angle, its start at the bottom. */
+export function pipeMapChart(p: OperatingPoint, u: Units, pipe: PipeMap): ChartSpec {
+  return mapChart(p, u, mapCells(p, pipe), {
+    name: pipeMapName(pipe, p.rpm),
+    title: `Pressure along the ${pipe.name} against crank angle at ${fixed(p.rpm, 0)} rpm`,
+    yTitle: `distance from the ${pipe.start} ${u.bracket('length')}`,
+  });
+}
+
+function mapChart(
+  p: OperatingPoint,
+  u: Units,
+  raw: { crank: number; crank2: number; x: number; x2: number; pressure: number }[],
+  o: { name: string; title: string; yTitle: string },
+): ChartSpec {
+  const cells = raw.map((c) => ({
     crank: c.crank,
     crank2: c.crank2,
     x: u.num('length', c.x),
@@ -482,10 +515,9 @@ export function runnerMapChart(p: OperatingPoint, u: Units, upstream: 'ambient' 
     p: Number(u.num('pressure', c.pressure).toFixed(3)),
   }));
   const marks = crankMarks(p.result.events);
-  const end = upstream === 'plenum' ? 'plenum end' : 'open end';
   return {
-    name: `runner-${fixed(p.rpm, 0)}rpm`,
-    title: `Pressure along the runner against crank angle at ${fixed(p.rpm, 0)} rpm`,
+    name: o.name,
+    title: o.title,
     crisp: true,
     spec: top({
       width: WIDTH,
@@ -497,7 +529,7 @@ export function runnerMapChart(p: OperatingPoint, u: Units, upstream: 'ambient' 
           encoding: {
             x: { ...crankAxis(true), field: 'crank' },
             x2: { field: 'crank2' },
-            y: { field: 'x', type: 'quantitative', title: `distance from the ${end} ${u.bracket('length')}`, scale: { nice: false, zero: true } },
+            y: { field: 'x', type: 'quantitative', title: o.yTitle, scale: { nice: false, zero: true } },
             y2: { field: 'x2' },
             color: {
               field: 'p',
@@ -531,7 +563,11 @@ export function reportCharts(data: ReportData, u: Units, opts: { massLimit: numb
   return [
     speedVeChart(data),
     speedOutputChart(data, u),
-    ...data.points.flatMap((p) => [valveChart(p, u, reference(p)), runnerMapChart(p, u, upstream)]),
+    ...data.points.flatMap((p) => [
+      valveChart(p, u, reference(p)),
+      runnerMapChart(p, u, upstream),
+      ...p.result.pipes.filter((m) => m.role !== 'runner').map((m) => pipeMapChart(p, u, m)),
+    ]),
     balanceChart(data, opts.massLimit, data.design.model.numerics.maxCycles),
   ];
 }

@@ -11,6 +11,7 @@
 import { MASS_IMBALANCE_LIMIT, massBalanceOk } from '../analysis/mass-balance.js';
 import type { SweepPoint } from '../analysis/sweep.js';
 import type { OperatingPoint, ReportData } from './gather.js';
+import { pipeMapName } from './charts.js';
 import { pipeSize, resonatorWords } from '../analysis/network-line.js';
 import { lineUnits, networkLine } from './network-line.js';
 import type { RenderedChart } from './render.js';
@@ -97,12 +98,12 @@ table.points th { vertical-align: bottom; line-height: 1.15; }
   section.page { margin: 0; break-after: page; page-break-after: always; }
   section.page:last-of-type { break-after: auto; page-break-after: auto; }
   tr { break-inside: avoid; }
-  /* each section one page of A4 or Letter (content about 188 × 256 mm) */
+  /* each section one page of A4 or Letter (content about 188 × 256 mm), with about 10 mm to spare: a line more of text must not push a section over */
   figure svg { max-height: var(--fig-h, 100mm); }
-  figure[data-chart="speed-ve"] { --fig-h: 80mm; }
-  figure[data-chart="speed-output"] { --fig-h: 90mm; }
+  figure[data-chart="speed-ve"] { --fig-h: 76mm; }
+  figure[data-chart="speed-output"] { --fig-h: 84mm; }
   figure[data-chart^="valve-"] { --fig-h: 94mm; }
-  figure[data-chart^="runner-"] { --fig-h: 56mm; }
+  figure[data-chart^="runner-"], figure[data-chart^="pipe-"] { --fig-h: 56mm; }
   figure[data-chart="mass-balance"] { --fig-h: 62mm; }
 }
 `;
@@ -283,7 +284,28 @@ ${imb}${conv}
 ${pointFigures(p, u)}
 ${figure(charts.get(`valve-${rpm}rpm`), `One converged cycle at ${rpm} rpm. Grey span: the intake valve open. Top: static pressure at the valve end of the runner with the ${p.pulse.referenceKind} pressure dashed; middle: flow through the intake valve (positive into the cylinder); bottom: gas in the cylinder.`)}
 ${figure(charts.get(`runner-${rpm}rpm`), `Pressure along the runner against crank angle (the valve at the top, ${end} at the bottom): a pulse is seen as a sloping stripe running between the ends. Light is high pressure, dark is low.`)}
-</section>`;
+</section>${pipesSections(p, charts)}`;
+}
+
+/** the maps of the case's other pipes (snorkel, exhaust pipe, resonators) at one speed, three to a printed page */
+export const PIPE_MAPS_PER_PAGE = 3;
+
+function pipesSections(p: OperatingPoint, charts: Map<string, RenderedChart>): string {
+  const rpm = fixed(p.rpm, 0);
+  const others = p.result.pipes.filter((m) => m.role !== 'runner');
+  const pages: string[] = [];
+  for (let k = 0; k < others.length; k += PIPE_MAPS_PER_PAGE) {
+    const figures = others
+      .slice(k, k + PIPE_MAPS_PER_PAGE)
+      .map((m) => figure(charts.get(pipeMapName(m, p.rpm)), `Pressure along the ${m.name} against crank angle (the ${m.start} at the bottom, the ${m.end} at the top), in the runner map's shades.`))
+      .join('\n');
+    pages.push(`
+<section class="page pipes" id="pipes-${rpm}${k > 0 ? `-${k / PIPE_MAPS_PER_PAGE + 1}` : ''}" data-rpm="${rpm}">
+<h2>At ${rpm} rpm — the other pipes</h2>
+${figures}
+</section>`);
+  }
+  return pages.join('');
 }
 
 /** cells of one design at one speed; `prefix` '' for the design, 'compare.' for the compared one */

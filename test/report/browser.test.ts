@@ -113,9 +113,20 @@ describe.skipIf(!browserPath)('the report in a real browser (Chromium)', () => {
     const page = await context.newPage();
     await page.goto(pathToFileURL(r.file).href, { waitUntil: 'load' });
     const sections = await page.$$eval('section.page', (s) => s.length);
-    // the design, the speed range, each operating point, the mass balance
-    expect(sections).toBe(name === 'everything' ? 5 : 4);
+    // the design, the speed range, each operating point, the mass balance; and a page of maps of the other pipes (snorkel, exhaust pipe, resonators) after each point of a case that has them
+    const pipePages = await page.$$eval('section.page.pipes', (s) => s.length);
+    expect(sections).toBe((name === 'everything' ? 5 : 4) + pipePages);
+    if (['airbox-single', 'resonator-single'].includes(name)) expect(pipePages).toBe(1);
+    if (name === 'demo') expect(pipePages).toBe(0);
     await page.emulateMedia({ media: 'print' });
+    // each section fits its page with 5 mm to spare at the page's content width (margins 11 mm a side, 11 + 12 mm top and bottom;
+    // 96 px to the inch), so a line more of text cannot push one over
+    const mm = 96 / 25.4;
+    for (const [format, w, h] of [['A4', 210, 297], ['Letter', 215.9, 279.4]] as const) {
+      await page.setViewportSize({ width: Math.floor((w - 22) * mm), height: Math.floor((h - 23) * mm) });
+      const heights = await page.$$eval('section.page', (ss) => ss.map((x) => [x.id, x.getBoundingClientRect().height] as const));
+      for (const [id, height] of heights) expect(height, `${format}: section ${id}`).toBeLessThanOrEqual((h - 23 - 5) * mm);
+    }
     for (const format of ['A4', 'Letter'] as const) {
       const pdf = await page.pdf({ format, printBackground: true });
       expect(pdfPages(pdf), format).toBe(sections);
