@@ -507,11 +507,14 @@ function mapChart(
   raw: { crank: number; crank2: number; x: number; x2: number; pressure: number }[],
   o: { name: string; title: string; yTitle: string },
 ): ChartSpec {
+  // each cell reaches a little into the next one, which is drawn over it: with crisp edges (no
+  // anti-aliasing) cells that only touch at a fractional pixel leave a one-pixel seam of background
+  const xMax = raw.reduce((m, c) => Math.max(m, c.x2), 0);
   const cells = raw.map((c) => ({
     crank: c.crank,
-    crank2: c.crank2,
+    crank2: Math.min(720, c.crank2 + 0.5),
     x: u.num('length', c.x),
-    x2: u.num('length', c.x2),
+    x2: u.num('length', Math.min(xMax, c.x2 + 0.01 * xMax)),
     p: Number(u.num('pressure', c.pressure).toFixed(3)),
   }));
   const marks = crankMarks(p.result.events);
