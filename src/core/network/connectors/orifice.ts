@@ -12,13 +12,38 @@
 import { CP } from '../../gas.js';
 import { reservoirFlow } from '../../flow.js';
 import { AreaSource } from './area.js';
+import { bracketedRoot, type Residual } from '../../boundary/solve.js';
 import type { AreaSpec, Connector, PipeEnd, StepContext, Volume } from '../types.js';
+
+/**
+ * g(ṁ) = ṁ − (the nozzle flow at the mid-step pressures ṁ would give): the
+ * trial flow's extra part d = ṁ − last carries cp·T of the volume it leaves,
+ * so p_from = pf0 − d·T_up·sf and p_to = pt0 + d·T_up·st (see `solve`).
+ */
+class MidStepFlow implements Residual {
+  a = 0;
+  pf0 = 0;
+  Tf = 0;
+  pt0 = 0;
+  Tt = 0;
+  sf = 0;
+  st = 0;
+  last = 0;
+  rx = 0;
+  rf = 0;
+  evaluate(): void {
+    const d = this.rx - this.last;
+    const Tu = this.rx >= 0 ? this.Tf : this.Tt;
+    this.rf = this.rx - reservoirFlow(this.a, this.pf0 - d * Tu * this.sf, this.Tf, this.pt0 + d * Tu * this.st, this.Tt);
+  }
+}
 
 export class OrificeConnector implements Connector {
   readonly ends: readonly PipeEnd[] = [];
   readonly area: AreaSource;
   /** mass flow from `from` to `to` in the last step [kg/s] */
   flow = 0;
+  private readonly residual = new MidStepFlow();
 
   constructor(
     readonly name: string,
@@ -56,32 +81,21 @@ export class OrificeConnector implements Connector {
       const scale = Math.abs(m0) + Math.abs(last);
       if (Math.abs(m0 - last) > 1e-9 * scale) {
         // g(ṁ) = ṁ − flow(ṁ) rises with ṁ; g(last) = last − m0 and the root lies between last and m0
-        let lo = last + 0;
-        let glo = last - m0;
-        let hi = m0 + 0;
-        let d = hi - last;
-        let Tu = hi >= 0 ? Tf : Tt;
-        let ghi = hi - reservoirFlow(a, pf0 - d * Tu * sf, Tf, pt0 + d * Tu * st, Tt);
-        if (ghi * glo < 0) {
-          let side = 0;
-          for (let k = 0; k < 40; k++) {
-            m = (lo * ghi - hi * glo) / (ghi - glo);
-            d = m - last;
-            Tu = m >= 0 ? Tf : Tt;
-            const g = m - reservoirFlow(a, pf0 - d * Tu * sf, Tf, pt0 + d * Tu * st, Tt);
-            if (g === 0 || Math.abs(hi - lo) < 1e-10 * scale) break;
-            if (g > 0 === ghi > 0) {
-              hi = m;
-              ghi = g;
-              if (side === 1) glo *= 0.5;
-              side = 1;
-            } else {
-              lo = m;
-              glo = g;
-              if (side === -1) ghi *= 0.5;
-              side = -1;
-            }
-          }
+        const g = this.residual;
+        g.a = a;
+        g.pf0 = pf0;
+        g.Tf = Tf;
+        g.pt0 = pt0;
+        g.Tt = Tt;
+        g.sf = sf;
+        g.st = st;
+        g.last = last;
+        g.rx = m0;
+        g.evaluate();
+        const ghi = g.rf;
+        if (ghi * (last - m0) < 0) {
+          bracketedRoot(g, last, m0, last - m0, ghi, 1e-10);
+          m = g.rx;
         }
       }
     }
