@@ -316,12 +316,29 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
   const history: number[] = [];
   let converged = false;
   let cycles = 0;
-  const run = new CycleRun(model, net, cylinder, valve, inlet, exhaustPort, plenum, tr, burnedTrace, sp, su, sT, runnerIdx, runnerNodes, maps.map((m) => m.probe), chainSampled);
-  run.start = start;
-  run.firstWhole = firstWhole;
-  run.phi0 = Math.max(0, firstWhole - start);
-  run.degPerSec = degPerSec;
-  run.release = asm.release;
+  const run = new CycleRun({
+    model,
+    net,
+    cylinder,
+    valve,
+    inlet,
+    exhaustPort,
+    plenum,
+    tr,
+    burnedTrace,
+    sp,
+    su,
+    sT,
+    runnerIdx,
+    runnerNodes,
+    probes: maps.map((m) => m.probe),
+    chainSampled,
+    start,
+    firstWhole,
+    phi0: Math.max(0, firstWhole - start),
+    degPerSec,
+    release: asm.release,
+  });
 
   const accel = options.accelerate === false ? undefined : new CycleAccelerator(chambers);
   // Samples (traces, maps, the mean sound speed) are only of use from the
@@ -362,7 +379,7 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
       sampleNext = true;
     }
   }
-  return pointResult(model, net, chambers, maps, run, tr, burnedTrace, sp, su, sT, { refMass, converged, cycles, history });
+  return pointResult(run, chambers, maps, { refMass, converged, cycles, history });
 }
 
 /**
@@ -373,12 +390,36 @@ export function simulatePoint(model: EngineModel, options: SimulateOptions = {})
  * shape (measured: 26 recompilations of simulatePoint, 1.2 s of compiler
  * time in a 30-point sweep, before this split).
  */
+/** what one cycle's stepping works on: the assembled parts, the sample buffers and the cycle's timing */
+interface CycleParts {
+  model: EngineModel;
+  net: Network;
+  cylinder: CylinderVolume['cylinder'];
+  valve: RestrictedConnector;
+  inlet: OpenConnector;
+  exhaustPort: RestrictedConnector | undefined;
+  plenum: { readonly pressure: number } | undefined;
+  /** per-degree traces being filled */
+  tr: Traces;
+  burnedTrace: Float64Array;
+  /** per pipe: sampled pressure, velocity, temperature */
+  sp: Float64Array[];
+  su: Float64Array[];
+  sT: Float64Array[];
+  runnerIdx: number[];
+  runnerNodes: number;
+  probes: MapProbe[];
+  chainSampled: Float64Array[][];
+  /** θ of the cycle start, of its first whole-degree sample, and the offset φ of that sample [deg] */
+  start: number;
+  firstWhole: number;
+  phi0: number;
+  degPerSec: number;
+  /** the cylinder's state at the cycle start */
+  release: { pressure: number; temperature: number };
+}
+
 class CycleRun {
-  start = 0;
-  firstWhole = 0;
-  phi0 = 0;
-  degPerSec = 0;
-  release = { pressure: 0, temperature: 0 };
   readonly ctx: StepContext;
   steps = 0;
   delivered = 0;
@@ -388,35 +429,19 @@ class CycleRun {
   valveP: number;
   portP: number;
 
-  constructor(
-    readonly model: EngineModel,
-    readonly net: Network,
-    readonly cylinder: CylinderVolume['cylinder'],
-    readonly valve: RestrictedConnector,
-    readonly inlet: OpenConnector,
-    readonly exhaustPort: RestrictedConnector | undefined,
-    readonly plenum: { readonly pressure: number } | undefined,
-    readonly tr: Traces,
-    readonly burnedTrace: Float64Array,
-    readonly sp: Float64Array[],
-    readonly su: Float64Array[],
-    readonly sT: Float64Array[],
-    readonly runnerIdx: number[],
-    readonly runnerNodes: number,
-    readonly probes: MapProbe[],
-    readonly chainSampled: Float64Array[][],
-  ) {
-    this.ctx = { dt: 0, thetaMid: 0, theta1: 0, rpm: model.rpm };
-    this.valveP = model.ambient.pressure;
-    this.portP = model.exhaust.backPressure;
+  constructor(readonly parts: CycleParts) {
+    this.ctx = { dt: 0, thetaMid: 0, theta1: 0, rpm: parts.model.rpm };
+    this.valveP = parts.model.ambient.pressure;
+    this.portP = parts.model.exhaust.backPressure;
   }
 
   /** run cycle number `cycle` from the cycle start through 720°, sampling each whole degree when `sampling` */
   cycle(cycle: number, sampling: boolean): void {
-    const { model, net, cylinder, valve, inlet, exhaustPort, plenum, tr, burnedTrace, sp, su, sT, runnerIdx, probes, chainSampled, ctx } = this;
+    const { model, net, cylinder, valve, inlet, exhaustPort, plenum, tr, burnedTrace, sp, su, sT, runnerIdx, runnerNodes, probes, chainSampled } = this.parts;
+    const { start, firstWhole, phi0, degPerSec, release } = this.parts;
+    const ctx = this.ctx;
     const { ambient, intake, exhaust, numerics } = model;
-    const { start, firstWhole, phi0, degPerSec } = this;
-    cylinder.reset(start, this.release.pressure, this.release.temperature);
+    cylinder.reset(start, release.pressure, release.temperature);
     net.startCycle();
     let delivered = 0;
     let inletMass = 0;
@@ -483,7 +508,7 @@ class CycleRun {
           const T = sT[runnerIdx[r]!]!;
           for (let i = 0; i < T.length; i++) asum += Math.sqrt(GAMMA * R_AIR * T[i]!);
         }
-        soundSum += asum / this.runnerNodes;
+        soundSum += asum / runnerNodes;
         for (let k = 0; k < probes.length; k++) probes[k]!.record(j, chainSampled[k]!);
         mark++;
       }
@@ -519,18 +544,12 @@ interface MapOf {
 
 /** the point's result and its converged state, from the last cycle run */
 function pointResult(
-  model: EngineModel,
-  net: Network,
+  run: CycleRun,
   chambers: readonly Chamber[],
   maps: readonly MapOf[],
-  run: CycleRun,
-  tr: Traces,
-  burnedTrace: Float64Array,
-  sp: Float64Array[],
-  su: Float64Array[],
-  sT: Float64Array[],
   c: { refMass: number; converged: boolean; cycles: number; history: number[] },
 ): { result: PointResult; warmStart: WarmStart } {
+  const { model, net, tr, burnedTrace, sp, su, sT } = run.parts;
   const { intake, exhaust, runner, numerics, rpm } = model;
   const { refMass, converged, cycles, history } = c;
   const { delivered, inletMass, peakReverse, soundSum, steps } = run;
