@@ -14,7 +14,7 @@ import { liftByDegree } from '../case/lift-file.js';
 import { dynoAsEta } from '../analysis/dyno.js';
 import { density } from '../core/gas.js';
 import { sweptVolume } from '../core/kinematics.js';
-import { FIELDS, resonatorFields, sectionFields, type FieldDef } from './fields.js';
+import { FIELDS, resonatorFields, sectionFields, siToUnit, type FieldDef } from './fields.js';
 import { fileExists, saveDirFor, saveEditedCase, suggestSavePath, writeFileAtomic } from './save.js';
 import { packageVersion } from '../case/package-root.js';
 import type { Edit } from './state.js';
@@ -88,14 +88,7 @@ export function measuredOf(loaded: LoadedCase): SessionMeasured | undefined {
 }
 
 /** A value in model units → the display unit `unitWord` ('' = as is), by the case loader's unit table. */
-export function toDisplay(value: number, unitWord: string): number {
-  if (!unitWord) return value;
-  const u = UNITS[unitWord];
-  if (!u) return value;
-  const zero = u.toModel(0);
-  const one = u.toModel(1);
-  return (value - zero) / (one - zero);
-}
+export const toDisplay = siToUnit;
 
 /** The default sweep when the case gives none: half to 1.4 × the case speed, 250 rpm steps (our default, not a rule). */
 export function defaultSweepPlan(rpm: number): SweepPlan {

@@ -5,7 +5,8 @@
  * unit conversion; the panel only shows and types numbers.
  */
 import { fixed } from '../present/number.js';
-import { NIST, type UnitSystem } from '../present/units.js';
+import { unitOf, type Quantity, type UnitSystem } from '../present/units.js';
+import { UNITS } from '../case/units.js';
 
 export interface FieldDef {
   /** case-file path, as for `--set` */
@@ -317,8 +318,9 @@ export function parseTyped(text: string): number | undefined {
  * A field as the user sees it in a unit system: its unit, decimals and step
  * there, and the conversions between the value kept (the field's own,
  * metric unit, which the override is written in) and the value shown.
- * Imperial: mm → in, L → ci, kPa → psi, °C → °F (NIST SP 811 factors,
- * present/units.ts); every other field, and every field in metric, as is.
+ * Imperial: mm → in, L → ci, kPa → psi, °C → °F, through the case loader's
+ * unit table (field unit → SI) and the presentation layer's (SI → shown,
+ * NIST SP 811 factors); every other field, and every field in metric, as is.
  */
 export interface FieldView {
   def: FieldDef;
@@ -326,12 +328,12 @@ export interface FieldView {
   fromShown: (shown: number) => number;
 }
 
-/** [unitWord] → the imperial unit: its label, kept units per shown unit, offset (shown = kept / per + offset), extra decimals */
-const IMPERIAL_OF: Readonly<Record<string, { unit: string; per: number; offset: number; decimals: number }>> = {
-  mm: { unit: 'in', per: NIST.inch * 1000, offset: 0, decimals: 2 },
-  L: { unit: 'ci', per: NIST.cubicInch * 1000, offset: 0, decimals: -1 },
-  kPa: { unit: 'psi', per: NIST.psi / 1000, offset: 0, decimals: 1 },
-  degC: { unit: '°F', per: 5 / 9, offset: 32, decimals: 0 },
+/** [unitWord] → the quantity whose imperial unit the field is shown in, and the decimals it gains */
+const IMPERIAL_OF: Readonly<Record<string, { q: Quantity; decimals: number }>> = {
+  mm: { q: 'length', decimals: 2 },
+  L: { q: 'volume', decimals: -1 },
+  kPa: { q: 'pressure', decimals: 1 },
+  degC: { q: 'temperature', decimals: 0 },
 };
 
 /** the 1–2–2.5–5 step nearest `x` (by ratio) */
@@ -351,13 +353,25 @@ export function niceStep(x: number): number {
   return best;
 }
 
+/** a value in SI → the unit `unitWord` of the case loader's table ('' or unknown: as is) */
+export function siToUnit(si: number, unitWord: string): number {
+  const u = unitWord ? UNITS[unitWord] : undefined;
+  if (!u) return si;
+  const zero = u.toModel(0);
+  return (si - zero) / (u.toModel(1) - zero);
+}
+
 export function fieldIn(field: FieldDef, system: UnitSystem): FieldView {
   const imp = system === 'imperial' ? IMPERIAL_OF[field.unitWord] : undefined;
-  if (!imp) return { def: field, toShown: (v) => v, fromShown: (x) => x };
+  const kept = UNITS[field.unitWord];
+  if (!imp || !kept) return { def: field, toShown: (v) => v, fromShown: (x) => x };
+  const shown = unitOf('imperial', imp.q);
   const decimals = Math.max(0, field.decimals + imp.decimals);
+  // a step is a difference: no offset (1 °C of step is 1.8 °F)
+  const stepShown = shown.toDisplay(kept.toModel(field.step)) - shown.toDisplay(kept.toModel(0));
   return {
-    def: { ...field, unit: field.unit.replace(/^(mm|L|kPa|°C)/, imp.unit), step: roundTo(niceStep(field.step / imp.per), 6), decimals },
-    toShown: (v) => v / imp.per + imp.offset,
-    fromShown: (x) => (x - imp.offset) * imp.per,
+    def: { ...field, unit: field.unit.replace(/^(mm|L|kPa|°C)/, shown.label), step: roundTo(niceStep(stepShown), 6), decimals },
+    toShown: (v) => shown.toDisplay(kept.toModel(v)),
+    fromShown: (x) => siToUnit(shown.toSi(x), field.unitWord),
   };
 }
