@@ -70,6 +70,11 @@ interface QOpts {
   nonNegative?: boolean;
 }
 
+/** the value as the case wrote it ("-380 mm"), else in the model unit */
+function asWritten(raw: unknown, v: number, kind: QuantityKind): string {
+  return typeof raw === 'string' && raw.trim() !== '' ? raw.trim() : fmt(v, kind);
+}
+
 function fmt(v: number, kind: QuantityKind): string {
   const u = MODEL_UNIT[kind];
   const s = Number.isInteger(v) ? String(v) : Number(v.toPrecision(6)).toString();
@@ -89,11 +94,11 @@ function q(kind: QuantityKind, opts: QOpts = {}) {
       return z.NEVER;
     }
     if (opts.positive && !(r.value > 0)) {
-      ctx.addIssue({ code: 'custom', message: `must be positive, got ${fmt(r.value, kind)}` });
+      ctx.addIssue({ code: 'custom', message: `must be positive, got ${asWritten(v, r.value, kind)}` });
       return z.NEVER;
     }
     if (opts.nonNegative && !(r.value >= 0)) {
-      ctx.addIssue({ code: 'custom', message: `must not be negative, got ${fmt(r.value, kind)}` });
+      ctx.addIssue({ code: 'custom', message: `must not be negative, got ${asWritten(v, r.value, kind)}` });
       return z.NEVER;
     }
     return r.value;
